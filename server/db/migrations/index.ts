@@ -1,0 +1,5 @@
+import type { Migration } from '../migration';
+import { organizationsSitesUsers } from './0001-organizations-sites-users';
+
+/** Every migration, in the order it runs. Append; never edit one that has shipped. */
+export const migrations: readonly Migration[] = [organizationsSitesUsers];
