@@ -7,6 +7,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { ensurePostgres, startThrowawayPostgres } from './throwaway-postgres.mjs';
 
 const root = new URL('..', import.meta.url).pathname;
 const bin = (name) => join(root, 'node_modules/.bin', name);
@@ -34,6 +35,24 @@ if (!existsSync(CHROMIUM)) {
 step('Type check (server, shared, tests)', bin('tsc'), ['--noEmit', '-p', 'tsconfig.server.json']);
 const jestReport = join(mkdtempSync(join(tmpdir(), 'heapsight-jest-')), 'report.json');
 step('Unit and integration tests (Jest)', bin('jest'), ['--coverage', '--json', `--outputFile=${jestReport}`]);
+// The server suite again on a real PostgreSQL server (throw-away cluster on loopback), so the
+// same migrations and queries are proven on both databases.
+const postgresBin = ensurePostgres();
+let postgresReport = null;
+if (postgresBin) {
+  const postgres = await startThrowawayPostgres(postgresBin);
+  try {
+    postgresReport = join(mkdtempSync(join(tmpdir(), 'heapsight-jest-pg-')), 'report.json');
+    env.TEST_DATABASE_URL = postgres.url;
+    step('Server integration tests on PostgreSQL', bin('jest'), ['--selectProjects', 'server', '--json', `--outputFile=${postgresReport}`]);
+  } finally {
+    delete env.TEST_DATABASE_URL;
+    postgres.stop();
+  }
+} else {
+  console.error('PostgreSQL is not installed (apt-get install -y postgresql): the PostgreSQL run is skipped.');
+}
+
 step('Production build of the app (budgets enforced)', bin('ng'), ['build']);
 step('Build of the server', bin('tsc'), ['-p', 'tsconfig.build-server.json']);
 const e2e = spawnSync(process.execPath, [join(root, 'e2e/run.mjs')], { cwd: root, env, encoding: 'utf8', stdio: ['inherit', 'pipe', 'inherit'] });
@@ -42,8 +61,10 @@ process.stdout.write(e2e.stdout);
 const jest = JSON.parse(readFileSync(jestReport, 'utf8'));
 const e2ePassed = Number(/ℹ pass (\d+)/.exec(e2e.stdout)?.[1] ?? 0);
 const e2eFailed = Number(/ℹ fail (\d+)/.exec(e2e.stdout)?.[1] ?? (e2e.status === 0 ? 0 : 1));
-const passed = jest.numPassedTests + e2ePassed;
-const failed = jest.numFailedTests + e2eFailed;
-console.log(`\nJest: ${jest.numPassedTests} passed; end-to-end: ${e2ePassed} passed, ${e2eFailed} failed`);
+const onPostgres = postgresReport ? JSON.parse(readFileSync(postgresReport, 'utf8')) : { numPassedTests: 0, numFailedTests: 0 };
+const passed = jest.numPassedTests + onPostgres.numPassedTests + e2ePassed;
+const failed = jest.numFailedTests + onPostgres.numFailedTests + e2eFailed;
+console.log(`\nJest: ${jest.numPassedTests} passed; server on PostgreSQL: ${onPostgres.numPassedTests} passed; ` +
+  `end-to-end: ${e2ePassed} passed, ${e2eFailed} failed`);
 console.log(`tests: ${passed} passed, ${failed} failed`);
 process.exit(failed === 0 && e2e.status === 0 ? 0 : 1);
