@@ -1,45 +1,57 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
-import { Component, computed, inject } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
-import { MatButtonModule } from '@angular/material/button';
+import { DOCUMENT, Component, computed, inject, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { MatListModule } from '@angular/material/list';
-import { MatSidenavModule } from '@angular/material/sidenav';
-import { MatToolbarModule } from '@angular/material/toolbar';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
-import { map } from 'rxjs';
 import { AuthSession } from '../../auth/auth-session';
+import { ConnectivityStatus } from '../connectivity-status';
 import { DisplayMode } from '../display-mode';
 import { NAV_ITEMS, navItemsFor } from '../nav-items';
-import { ConnectivityStatus } from '../connectivity-status';
 
 /** Phones and small tablets in portrait get the bottom bar; wider screens a side rail. */
 const PHONE_QUERY = '(max-width: 759.98px)';
 /** A bottom bar holds at most this many destinations before they crowd a 360 px screen. */
 const MAX_BOTTOM_ITEMS = 4;
 
-/** The app frame: toolbar, navigation (side rail or bottom bar) and the routed page. */
+/**
+ * The app frame: toolbar, navigation (side rail on wide screens, bottom bar plus a "More" drawer
+ * on phones) and the routed page. Plain elements rather than Material's sidenav and list keep the
+ * first download small for phones on slow camp Wi-Fi.
+ */
 @Component({
   selector: 'hs-shell',
-  imports: [
-    MatToolbarModule, MatSidenavModule, MatListModule, MatIconModule, MatButtonModule,
-    RouterOutlet, RouterLink, RouterLinkActive,
-  ],
+  imports: [MatIconModule, RouterOutlet, RouterLink, RouterLinkActive],
   templateUrl: './shell.html',
   styleUrl: './shell.scss',
+  host: { '(document:keydown.escape)': 'closeDrawer()' },
 })
 export class Shell {
   private readonly session = inject(AuthSession);
   protected readonly displayMode = inject(DisplayMode);
   protected readonly connectivity = inject(ConnectivityStatus);
 
-  protected readonly isPhone = toSignal(
-    inject(BreakpointObserver).observe(PHONE_QUERY).pipe(map((state) => state.matches)),
-    { initialValue: false },
-  );
+  protected readonly isPhone = signal(false);
+  protected readonly isDrawerOpen = signal(false);
   protected readonly items = computed(() => navItemsFor(this.session.user()?.role ?? null, NAV_ITEMS));
   protected readonly bottomItems = computed(() =>
     this.items().filter((item) => item.isPrimaryOnPhone).slice(0, MAX_BOTTOM_ITEMS),
   );
   protected readonly user = this.session.user;
+
+  constructor() {
+    const query = inject(DOCUMENT).defaultView?.matchMedia?.(PHONE_QUERY);
+    if (query) {
+      this.isPhone.set(query.matches);
+      query.addEventListener('change', (event) => {
+        this.isPhone.set(event.matches);
+        this.isDrawerOpen.set(false);
+      });
+    }
+  }
+
+  protected toggleDrawer(): void {
+    this.isDrawerOpen.update((isOpen) => !isOpen);
+  }
+
+  protected closeDrawer(): void {
+    this.isDrawerOpen.set(false);
+  }
 }
