@@ -2,10 +2,21 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
+import { authRoutes } from './accounts/auth.routes';
+import { installAuthentication } from './accounts/authenticate';
+import { createAuthService } from './accounts/auth.service';
+import { meRoutes } from './accounts/me.routes';
+import { createPeopleService } from './accounts/people.service';
+import { peopleRoutes } from './accounts/people.routes';
+import { requireSignInFor } from './accounts/route-table';
 import type { Database } from './db/database';
 import { healthRoutes } from './health/health.routes';
 import type { Config } from './lib/config';
 import { apiNotFound, errorMiddleware } from './lib/errors';
+import { createMailService } from './mail/mail.service';
+import { outboxRoutes } from './mail/outbox.routes';
+import { createSitesService } from './sites/sites.service';
+import { sitesRoutes } from './sites/sites.routes';
 import { staticApp } from './web/static-app';
 
 /** What the app needs from the outside world; tests pass their own. */
@@ -21,15 +32,37 @@ const JSON_BODY_LIMIT = '2mb';
 /** Builds the Express app. Only main.ts listens, so tests can run it in process. */
 export function createApp(context: AppContext): Express {
   const { config, database, logger } = context;
+  if (!config.jwtSecret) {
+    throw new Error('JWT_SECRET is required: set it to a random string of 32 or more characters');
+  }
+  const publicUrl = config.publicUrl ?? `http://${config.host}:${config.port}`;
+  const mail = createMailService(context);
+  const auth = createAuthService({ database, jwtSecret: config.jwtSecret, mail, publicUrl });
+
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(helmet({ contentSecurityPolicy: { directives: contentSecurityPolicy(config) } }));
   app.use(pinoHttp({ logger, autoLogging: { ignore: (request) => !request.url?.startsWith('/api/') } }));
 
+  installAuthentication(app, config.jwtSecret);
+
+  // Public routes: health and signing in.
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT, strict: true }));
   api.use(healthRoutes(database));
+  api.use(authRoutes(auth, logger));
+
+  // Every route mounted on `signedIn` requires a valid access token (the wall answers 401 before
+  // the route runs; unknown paths still get their 404). Mount new components here, and give each
+  // of their routes a rule in tests/server/permissions/route-rules.ts.
+  const signedIn = express.Router();
+  signedIn.use(meRoutes(database));
+  signedIn.use(sitesRoutes(createSitesService({ database })));
+  signedIn.use(peopleRoutes(createPeopleService({ database, mail, publicUrl })));
+  signedIn.use(outboxRoutes());
+  api.use(requireSignInFor(signedIn));
+  api.use(signedIn);
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -1,5 +1,6 @@
 import type { Migration } from '../migration';
 import { organizationsSitesUsers } from './0001-organizations-sites-users';
+import { devicesTokensMail } from './0002-devices-tokens-mail';
 
 /** Every migration, in the order it runs. Append; never edit one that has shipped. */
-export const migrations: readonly Migration[] = [organizationsSitesUsers];
+export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail];
