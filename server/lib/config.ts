@@ -25,6 +25,11 @@ const environmentSchema = z.object({
   MAIL_FROM: z.string().default('Heapsight <no-reply@heapsight.invalid>'),
   /** Optional map tile URL template for online deployments, e.g. https://tiles.example/{z}/{x}/{y}.png */
   MAP_TILE_URL: z.string().optional(),
+  /** `disk` (DATA_DIR/photos, the default) or `s3://bucket[/prefix]` for S3-compatible storage. */
+  PHOTO_STORE: z.string().regex(/^(disk|s3:\/\/.+)$/, 'PHOTO_STORE must be "disk" or s3://bucket[/prefix]').default('disk'),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('1'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   STATIC_DIR: z.string().default('dist/heapsight/browser'),
 });
@@ -50,6 +55,10 @@ export interface Config {
     readonly from: string;
   };
   readonly mapTileUrl: string | null;
+  /** Where photo bytes go: the data folder, or an S3-compatible bucket. */
+  readonly photoStore:
+    | { readonly kind: 'disk' }
+    | { readonly kind: 's3'; readonly location: string; readonly endpoint: string | null; readonly region: string; readonly forcePathStyle: boolean };
   readonly logLevel: string;
   readonly staticDir: string;
 }
@@ -82,6 +91,9 @@ export function loadConfig(environment: NodeJS.ProcessEnv = process.env): Config
       from: values.MAIL_FROM,
     },
     mapTileUrl: values.MAP_TILE_URL ?? null,
+    photoStore: values.PHOTO_STORE === 'disk'
+      ? { kind: 'disk' }
+      : { kind: 's3', location: values.PHOTO_STORE, endpoint: values.S3_ENDPOINT ?? null, region: values.S3_REGION, forcePathStyle: values.S3_FORCE_PATH_STYLE === '1' },
     logLevel: values.LOG_LEVEL,
     staticDir: resolve(values.STATIC_DIR),
   };

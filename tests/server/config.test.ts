@@ -17,3 +17,19 @@ describe('loadConfig', () => {
     expect(() => loadConfig({ PORT: 'eighty', JWT_SECRET: 'short' })).toThrow(/PORT[\s\S]*JWT_SECRET/);
   });
 });
+
+describe('loadConfig photo store', () => {
+  it('keeps photos on the local disk unless told otherwise', () => {
+    expect(loadConfig({}).photoStore).toEqual({ kind: 'disk' });
+  });
+
+  it('reads an S3-compatible store with its endpoint', () => {
+    expect(loadConfig({ PHOTO_STORE: 's3://heapsight-photos/camp', S3_ENDPOINT: 'http://127.0.0.1:9000' }).photoStore).toEqual({
+      kind: 's3', location: 's3://heapsight-photos/camp', endpoint: 'http://127.0.0.1:9000', region: 'us-east-1', forcePathStyle: true,
+    });
+  });
+
+  it('refuses a photo store that is neither disk nor s3://', () => {
+    expect(() => loadConfig({ PHOTO_STORE: 'ftp://old-server' })).toThrow(/PHOTO_STORE/);
+  });
+});
