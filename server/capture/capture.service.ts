@@ -1,0 +1,57 @@
+import { randomUUID } from 'node:crypto';
+import type { PileData, SampleData } from '../../shared/sync/protocol';
+import type { CurrentUser } from '../accounts/current-user';
+import { can, readableSiteIds } from '../accounts/policy';
+import { AppError } from '../lib/errors';
+import type { SyncService } from '../sync/sync.service';
+import { findPile, findPiles, findSamples, type Page, type RecordView, type SampleFilter } from './capture.repository';
+
+/** The device id the server writes under when a change comes from the web API rather than a device. */
+const WEB_DEVICE_ID = 'web';
+
+/** Reading piles and samples, and editing a pile from the web through the same path as a device's change. */
+export class CaptureService {
+  constructor(private readonly sync: SyncService) {}
+
+  listPiles(user: CurrentUser, filter: { siteId?: string; limit: number; offset: number }): Promise<Page<RecordView<PileData>>> {
+    return findPiles(readableSiteIds(user), filter);
+  }
+
+  async getPile(user: CurrentUser, pileId: string): Promise<RecordView<PileData>> {
+    const pile = await findPile(pileId);
+    if (!pile || !can(user, 'site:read', { siteId: pile.siteId })) {
+      throw new AppError('not_found', 'No such pile');
+    }
+    return pile;
+  }
+
+  /**
+   * Changes some fields of a pile on top of `baseRevision`, as one mutation through sync: the same
+   * checks, the same revision counter, and a kept conflict (409) when someone changed it meanwhile.
+   */
+  async patchPile(user: CurrentUser, pileId: string, baseRevision: number, changes: Partial<PileData>): Promise<RecordView<PileData>> {
+    const current = await this.getPile(user, pileId);
+    const { revision: _revision, updatedAt: _updatedAt, createdById: _createdById, ...data } = current;
+    const { results } = await this.sync.push(user, {
+      deviceId: user.deviceId ?? WEB_DEVICE_ID,
+      mutations: [{ mutationId: randomUUID(), entity: 'pile', id: pileId, op: 'upsert', baseRevision, data: { ...data, ...changes, id: pileId } }],
+    });
+    const [result] = results;
+    if (result.status === 'rejected') {
+      const isForbidden = result.errors.some((error) => error.path === '');
+      throw isForbidden
+        ? new AppError('forbidden', 'You do not have permission to change this pile')
+        : new AppError('validation_failed', 'The pile is not valid', result.errors);
+    }
+    if (result.status === 'conflict') {
+      throw new AppError('conflict', 'Someone changed this pile since you loaded it; both versions are kept for review', {
+        conflictId: result.conflictId, serverRevision: result.revision,
+      });
+    }
+    return this.getPile(user, pileId);
+  }
+
+  listSamples(user: CurrentUser, filter: SampleFilter): Promise<Page<RecordView<SampleData>>> {
+    return findSamples(readableSiteIds(user), filter);
+  }
+}

@@ -1,0 +1,36 @@
+import { join } from 'node:path';
+import { Router, type RequestHandler } from 'express';
+import type { AppContext } from '../app';
+import { captureRoutes } from '../capture/capture.routes';
+import { CaptureService } from '../capture/capture.service';
+import { ImageJobs } from '../photos/image-jobs';
+import { LocalDiskPhotoStore, type PhotoStore } from '../photos/photo-store';
+import { photosRoutes } from '../photos/photos.routes';
+import { PhotosService } from '../photos/photos.service';
+import { syncRoutes } from './sync.routes';
+import { SyncService } from './sync.service';
+
+/** The services behind capture and sync, built once per app. */
+export interface CaptureSyncServices {
+  readonly sync: SyncService;
+  readonly capture: CaptureService;
+  readonly photos: PhotosService;
+  readonly imageJobs: ImageJobs;
+}
+
+/** Builds the services; photos go to DATA_DIR/photos unless another store is passed (e.g. S3 later). */
+export function createCaptureSyncServices(context: AppContext, photoStore?: PhotoStore): CaptureSyncServices {
+  const sync = new SyncService(context.database);
+  const imageJobs = new ImageJobs();
+  const store = photoStore ?? new LocalDiskPhotoStore(join(context.config.dataDir, 'photos'));
+  return { sync, capture: new CaptureService(sync), photos: new PhotosService(context.database, store, imageJobs, context.logger), imageJobs };
+}
+
+/** Every capture, photo and sync route, each behind `authenticate`. Mounted on the API router. */
+export function captureSyncRoutes(services: CaptureSyncServices, authenticate: RequestHandler): Router {
+  const router = Router();
+  router.use(syncRoutes(services.sync, authenticate));
+  router.use(captureRoutes(services.capture, authenticate));
+  router.use(photosRoutes(services.photos, authenticate));
+  return router;
+}
