@@ -3,7 +3,7 @@ import helmet from 'helmet';
 import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { authRoutes } from './accounts/auth.routes';
-import { installAuthentication } from './accounts/authenticate';
+import { authenticate, installAuthentication } from './accounts/authenticate';
 import { createAuthService } from './accounts/auth.service';
 import { meRoutes } from './accounts/me.routes';
 import { createPeopleService } from './accounts/people.service';
@@ -17,6 +17,7 @@ import { createMailService } from './mail/mail.service';
 import { outboxRoutes } from './mail/outbox.routes';
 import { createSitesService } from './sites/sites.service';
 import { sitesRoutes } from './sites/sites.routes';
+import { captureSyncRoutes, createCaptureSyncServices } from './sync/capture-sync.component';
 import { staticApp } from './web/static-app';
 
 /** What the app needs from the outside world; tests pass their own. */
@@ -61,6 +62,7 @@ export function createApp(context: AppContext): Express {
   signedIn.use(sitesRoutes(createSitesService({ database })));
   signedIn.use(peopleRoutes(createPeopleService({ database, mail, publicUrl })));
   signedIn.use(outboxRoutes());
+  signedIn.use(captureSyncRoutes(createCaptureSyncServices(context), authenticate));
   api.use(requireSignInFor(signedIn));
   api.use(signedIn);
   api.use(apiNotFound);

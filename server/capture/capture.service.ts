@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { PileData, SampleData } from '../../shared/sync/protocol';
 import type { CurrentUser } from '../accounts/current-user';
-import { can, readableSiteIds } from '../accounts/policy';
+import { assertCan, can, readableSiteIds } from '../accounts/policy';
 import { AppError } from '../lib/errors';
 import type { SyncService } from '../sync/sync.service';
 import { findPile, findPiles, findSamples, type Page, type RecordView, type SampleFilter } from './capture.repository';
@@ -14,10 +14,12 @@ export class CaptureService {
   constructor(private readonly sync: SyncService) {}
 
   listPiles(user: CurrentUser, filter: { siteId?: string; limit: number; offset: number }): Promise<Page<RecordView<PileData>>> {
+    assertCan(user, 'site:read');
     return findPiles(readableSiteIds(user), filter);
   }
 
   async getPile(user: CurrentUser, pileId: string): Promise<RecordView<PileData>> {
+    assertCan(user, 'site:read');
     const pile = await findPile(pileId);
     if (!pile || !can(user, 'site:read', { siteId: pile.siteId })) {
       throw new AppError('not_found', 'No such pile');
@@ -30,6 +32,7 @@ export class CaptureService {
    * checks, the same revision counter, and a kept conflict (409) when someone changed it meanwhile.
    */
   async patchPile(user: CurrentUser, pileId: string, baseRevision: number, changes: Partial<PileData>): Promise<RecordView<PileData>> {
+    assertCan(user, 'capture:write');
     const current = await this.getPile(user, pileId);
     const { revision: _revision, updatedAt: _updatedAt, createdById: _createdById, ...data } = current;
     const { results } = await this.sync.push(user, {
@@ -52,6 +55,7 @@ export class CaptureService {
   }
 
   listSamples(user: CurrentUser, filter: SampleFilter): Promise<Page<RecordView<SampleData>>> {
+    assertCan(user, 'site:read');
     return findSamples(readableSiteIds(user), filter);
   }
 }

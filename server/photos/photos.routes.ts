@@ -51,10 +51,8 @@ export function photosRoutes(photos: PhotosService, authenticate: RequestHandler
 
   router.put('/photos/:uuid', authenticate, uploadOnePhoto(), async (request, response) => {
     const { uuid } = parseOrThrow(photoIdSchema, request.params, 'photo id');
-    if (!request.file) {
-      throw new AppError('validation_failed', 'Send the picture as the multipart field "photo"');
-    }
-    response.json(await photos.upload(currentUser(request), uuid, request.file));
+    // No file is fine for a photo already stored: the PUT is idempotent and answers its record.
+    response.json(await photos.upload(currentUser(request), uuid, request.file ?? null));
   });
 
   router.get('/photos/:uuid', authenticate, async (request, response) => {

@@ -54,11 +54,15 @@ export class PhotosService {
    * Stores a photo's bytes. The photo's record must have synced first (it says whose photo it is,
    * and so who may upload it). Uploading the same photo again changes nothing.
    */
-  async upload(user: CurrentUser, photoId: string, file: UploadedFile): Promise<PhotoView> {
+  async upload(user: CurrentUser, photoId: string, file: UploadedFile | null): Promise<PhotoView> {
+    assertCan(user, 'capture:write');
     const photo = await this.findReadable(user, photoId);
     assertCan(user, 'capture:write', { siteId: photo.siteId, ownerId: photo.createdById });
     if (photo.storedSizes.includes('full')) {
       return toView(photo);
+    }
+    if (!file) {
+      throw new AppError('validation_failed', 'Send the picture as the multipart field "photo"');
     }
     const contentType = file.mimetype as (typeof PHOTO_CONTENT_TYPES)[number];
     if (!PHOTO_CONTENT_TYPES.includes(contentType) || !SIGNATURES[contentType](file.buffer)) {
@@ -80,6 +84,7 @@ export class PhotosService {
 
   /** The bytes of one size; a thumbnail not yet made falls back to the full image (and says so). */
   async read(user: CurrentUser, photoId: string, size: StoredSize): Promise<{ file: StoredPhotoFile; size: StoredSize }> {
+    assertCan(user, 'site:read');
     await this.findReadable(user, photoId);
     const wanted = await this.store.get(photoId, size);
     if (wanted) {
@@ -94,6 +99,7 @@ export class PhotosService {
 
   /** Photo records of one pile or sample, or every photo the user may read (newest first, at most 500). */
   async list(user: CurrentUser, filter: { ownerEntity?: 'pile' | 'sample'; ownerId?: string }): Promise<PhotoView[]> {
+    assertCan(user, 'site:read');
     const readable = readableSiteIds(user);
     const where: Record<string, unknown> = { deletedAt: null };
     if (readable !== 'all') {

@@ -64,6 +64,7 @@ export class SyncService {
    * and answers 500, and the device sends the same batch again.
    */
   async push(user: CurrentUser, request: PushRequest): Promise<PushResponse> {
+    assertCan(user, 'capture:write');
     return this.database.transaction(async (transaction) => {
       const counter = await SyncRevision.findByPk(1, { transaction, lock: transaction.LOCK.UPDATE });
       if (!counter) {
@@ -89,6 +90,7 @@ export class SyncService {
    * appears once, at its latest revision, deleted or not; the cursor is the last revision sent.
    */
   async pull(user: CurrentUser, since: number, limit: number): Promise<PullResponse> {
+    assertCan(user, 'site:read');
     const readable = readableSiteIds(user);
     const where: Record<string | symbol, unknown> = { revision: { [Op.gt]: since } };
     if (readable !== 'all') {
@@ -121,6 +123,7 @@ export class SyncService {
 
   /** Open conflicts in the sites the user may read, oldest first. */
   async listConflicts(user: CurrentUser, status: 'open' | 'resolved' = 'open'): Promise<ConflictView[]> {
+    assertCan(user, 'site:read');
     const readable = readableSiteIds(user);
     const where: Record<string, unknown> = { status };
     if (readable !== 'all') {
@@ -135,6 +138,7 @@ export class SyncService {
    * merged record. The chosen version becomes a new revision on top of whatever the server holds now.
    */
   async resolveConflict(user: CurrentUser, conflictId: string, resolution: ResolveConflictRequest): Promise<{ conflict: ConflictView; revision: number }> {
+    assertCan(user, 'capture:resolve-conflict');
     return this.database.transaction(async (transaction) => {
       const conflict = await SyncConflict.findByPk(conflictId, { transaction, lock: transaction.LOCK.UPDATE });
       if (!conflict || !can(user, 'site:read', { siteId: conflict.siteId })) {
@@ -170,6 +174,7 @@ export class SyncService {
 
   /** The short number for a device's codes: given on first ask, the same ever after. */
   async registerDevice(user: CurrentUser, deviceId: string): Promise<DeviceRegistration> {
+    assertCan(user, 'capture:write');
     const existing = await DeviceNumber.findByPk(deviceId);
     if (existing) {
       return { deviceId, deviceNumber: existing.number };

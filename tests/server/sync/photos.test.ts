@@ -38,6 +38,11 @@ describe('photos', () => {
       expect(second.body.id).toBe(photoId);
     });
 
+    it('refuses a PUT with no file for a photo not yet stored, with 400', async () => {
+      const photoId = await syncPhotoRecord();
+      await app.as('sampler').put(`/api/photos/${photoId}`).expect(400);
+    });
+
     it('refuses a picture whose record has not synced with 404', async () => {
       const response = await app.as('sampler').put('/api/photos/0b6f3c2e-1a4d-4e8b-9c7d-00000000beef').attach('photo', FIXTURE_JPEG, { filename: 'p.jpg', contentType: 'image/jpeg' }).expect(404);
       expect(response.body.error.code).toBe('not_found');
@@ -91,10 +96,10 @@ describe('photos', () => {
       await app.as('sampler').get(`/api/photos/${photoId}`).set('if-none-match', first.headers['etag']).expect(304);
     });
 
-    it('hides a photo from someone outside its site with 404', async () => {
+    it('refuses a role that reads no site with 403', async () => {
       const photoId = await syncPhotoRecord();
       await app.as('sampler').put(`/api/photos/${photoId}`).attach('photo', FIXTURE_JPEG, { filename: 'p.jpg', contentType: 'image/jpeg' }).expect(200);
-      await app.as('lab').get(`/api/photos/${photoId}`).expect(404);
+      await app.as('lab').get(`/api/photos/${photoId}`).expect(403);
     });
   });
 });

@@ -95,9 +95,11 @@ describe('POST /api/sync/push', () => {
       expect(await Pile.count({ where: { id: elsewhere.id } })).toBe(0);
     });
 
-    it('rejects every change from a role that may not capture', async () => {
-      const { results } = await push('manager', [upsert('pile', newPile())]);
-      expect(results[0].status).toBe('rejected');
+    it('refuses a whole batch from a role that may not capture with 403, storing nothing', async () => {
+      const pile = newPile();
+      const response = await app.as('manager').post('/api/sync/push').send({ deviceId: 'device-m', mutations: [upsert('pile', pile)] }).expect(403);
+      expect(response.body.error.code).toBe('forbidden');
+      expect(await Pile.count({ where: { id: pile.id } })).toBe(0);
     });
 
     it('rejects a sampler changing a pile another person recorded', async () => {
