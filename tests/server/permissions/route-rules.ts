@@ -1,3 +1,7 @@
+import { randomUUID } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import request from 'supertest';
 import type { Role } from '../../../shared/accounts/roles';
 import type { MatrixContext } from './matrix-context';
 
@@ -38,6 +42,51 @@ export interface RouteRule {
 const EVERYONE: readonly Role[] = ['sampler', 'geologist', 'lab', 'manager', 'admin'];
 const SITE_READERS: readonly Role[] = ['sampler', 'geologist', 'manager', 'admin'];
 const ADMIN: readonly Role[] = ['admin'];
+
+// ── capture and sync: helpers that make fresh field records through the API ─────────────────
+const CAPTURE: readonly Role[] = ['sampler', 'geologist'];
+const GEOLOGIST: readonly Role[] = ['geologist'];
+const FIXTURE_PHOTO = readFileSync(join(__dirname, '../../fixtures/pile-photo.jpg'));
+
+async function pushAs(context: MatrixContext, role: Role, mutations: readonly Record<string, unknown>[], deviceId = 'matrix-device') {
+  const response = await request(context.app).post('/api/sync/push').set('Authorization', `Bearer ${context.tokens[role]}`).send({ deviceId, mutations });
+  return response.body.results as { status: string; revision: number; conflictId?: string }[];
+}
+
+function matrixPile(context: MatrixContext, siteId: string, siteCode: string) {
+  return {
+    id: randomUUID(), siteId, code: `${siteCode}-99-P${String(Math.floor(Math.random() * 1e6)).padStart(6, '0')}`, material: 'waste-rock',
+    footprint: null, heightM: 2, shapeModel: 'cone', angleOfReposeDeg: 35, bulkDensityTPerM3: null, moisturePct: 5,
+    spotHeights: null, sackCount: null, sackMassKg: null, hazards: [], notes: `matrix ${context.unique()}`,
+  };
+}
+
+/** A new pile at JR owned by the role (geologist when the role may not capture). */
+async function newPile(context: MatrixContext, role: Role | null, siteCode: 'JR' | 'IF' = 'JR') {
+  const owner: Role = role === 'sampler' && siteCode === 'JR' ? 'sampler' : 'geologist';
+  const pile = matrixPile(context, context.sites[siteCode], siteCode);
+  const [result] = await pushAs(context, owner, [{ mutationId: randomUUID(), entity: 'pile', id: pile.id, op: 'upsert', baseRevision: null, data: pile }]);
+  return { pile, revision: result.revision };
+}
+
+async function newConflictId(context: MatrixContext) {
+  const { pile, revision } = await newPile(context, 'geologist');
+  const edit = (notes: string) => ({ mutationId: randomUUID(), entity: 'pile', id: pile.id, op: 'upsert', baseRevision: revision, data: { ...pile, notes } });
+  await pushAs(context, 'geologist', [edit('first')], 'matrix-a');
+  const [conflict] = await pushAs(context, 'geologist', [edit('second')], 'matrix-b');
+  return conflict.conflictId as string;
+}
+
+/** A photo of a new pile, record synced and picture stored. */
+async function newStoredPhotoId(context: MatrixContext, siteCode: 'JR' | 'IF' = 'JR', role: Role | null = 'geologist') {
+  const owner: Role = role === 'sampler' && siteCode === 'JR' ? 'sampler' : 'geologist';
+  const { pile } = await newPile(context, owner, siteCode);
+  const photo = { id: randomUUID(), ownerEntity: 'pile', ownerId: pile.id, contentType: 'image/jpeg', originalWidth: 640, originalHeight: 480, byteSize: FIXTURE_PHOTO.length, takenAt: new Date().toISOString() };
+  await pushAs(context, owner, [{ mutationId: randomUUID(), entity: 'photo', id: photo.id, op: 'upsert', baseRevision: null, data: photo }]);
+  await request(context.app).put(`/api/photos/${photo.id}`).set('Authorization', `Bearer ${context.tokens[owner]}`)
+    .attach('photo', FIXTURE_PHOTO, { filename: 'pile.jpg', contentType: 'image/jpeg' });
+  return photo.id;
+}
 
 export const ROUTE_RULES: readonly RouteRule[] = [
   // ── health and sign-in (public) ──────────────────────────────────────────────────────────
@@ -81,4 +130,46 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   // ── Outbox (admin) ───────────────────────────────────────────────────────────────────────
   { route: 'GET /api/outbox', allowed: ADMIN, request: () => ({ url: '/api/outbox' }) },
   { route: 'GET /api/outbox/:id', allowed: ADMIN, request: async (context) => ({ url: `/api/outbox/${await context.outboxMessageId()}` }) },
+  // ── capture and sync ─────────────────────────────────────────────────────────────────────
+  {
+    route: 'POST /api/sync/push', allowed: CAPTURE,
+    request: (context) => {
+      const pile = matrixPile(context, context.sites.JR, 'JR');
+      return { url: '/api/sync/push', body: { deviceId: 'matrix-device', mutations: [{ mutationId: randomUUID(), entity: 'pile', id: pile.id, op: 'upsert', baseRevision: null, data: pile }] } };
+    },
+  },
+  { route: 'GET /api/sync/pull', allowed: SITE_READERS, request: () => ({ url: '/api/sync/pull?since=0&limit=10' }) },
+  { route: 'GET /api/sync/conflicts', allowed: SITE_READERS, request: () => ({ url: '/api/sync/conflicts' }) },
+  {
+    route: 'POST /api/sync/conflicts/:id/resolve', allowed: GEOLOGIST,
+    request: async (context) => ({ url: `/api/sync/conflicts/${await newConflictId(context)}/resolve`, body: { choice: 'server' } }),
+  },
+  { route: 'POST /api/sync/device', allowed: CAPTURE, request: (context) => ({ url: '/api/sync/device', body: { deviceId: `matrix-${context.unique()}` } }) },
+  { route: 'GET /api/piles', allowed: SITE_READERS, request: () => ({ url: '/api/piles' }) },
+  {
+    route: 'GET /api/piles/:id', allowed: SITE_READERS,
+    request: async (context) => ({ url: `/api/piles/${(await newPile(context, 'geologist')).pile.id}` }),
+    outOfScope: async (context) => ({ url: `/api/piles/${(await newPile(context, 'geologist', 'IF')).pile.id}` }),
+    reachesOutOfScope: ['geologist', 'manager', 'admin'],
+  },
+  {
+    route: 'PATCH /api/piles/:id', allowed: CAPTURE,
+    request: async (context, role) => {
+      const { pile, revision } = await newPile(context, role);
+      return { url: `/api/piles/${pile.id}`, body: { baseRevision: revision, changes: { heightM: 2.5 } } };
+    },
+  },
+  { route: 'GET /api/samples', allowed: SITE_READERS, request: () => ({ url: '/api/samples' }) },
+  { route: 'GET /api/photos', allowed: SITE_READERS, request: () => ({ url: '/api/photos' }) },
+  {
+    route: 'PUT /api/photos/:uuid', allowed: CAPTURE,
+    // A photo already stored: the PUT is idempotent and needs no file to answer 200.
+    request: async (context, role) => ({ url: `/api/photos/${await newStoredPhotoId(context, 'JR', role)}` }),
+  },
+  {
+    route: 'GET /api/photos/:uuid', allowed: SITE_READERS,
+    request: async (context) => ({ url: `/api/photos/${await newStoredPhotoId(context)}?size=full` }),
+    outOfScope: async (context) => ({ url: `/api/photos/${await newStoredPhotoId(context, 'IF')}` }),
+    reachesOutOfScope: ['geologist', 'manager', 'admin'],
+  },
 ];
