@@ -1,0 +1,121 @@
+/**
+ * Sync ingest: sample mutations pushed to a real server on loopback in batches of 500, against
+ * the raw rate of inserting the same rows straight into SQLite through the same driver
+ * (Sequelize's bulkInsert over sqlite3, 500 rows per transaction) in the same run.
+ * Goal from the issue: the API reaches at least a third of the raw rate.
+ */
+import { randomUUID } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import type { AddressInfo } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { createApp } from '../server/app';
+import { openDatabase } from '../server/db/database';
+import { migrateToLatest } from '../server/db/migrator';
+import { initModels } from '../server/db/models';
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_SITES } from '../server/demo/demo-scenario';
+import { seedDemo } from '../server/demo/seed-demo';
+import { loadConfig } from '../server/lib/config';
+import { createLogger } from '../server/lib/logger';
+import { BENCH_SIZE, reportFigure, timeIt } from './report';
+
+const TOTAL = BENCH_SIZE === 'full' ? 10_000 : 2_000;
+const BATCH = 500;
+const sampler = DEMO_PEOPLE.find((person) => person.role === 'sampler') as (typeof DEMO_PEOPLE)[number];
+
+function sampleData(pileId: string, index: number) {
+  return {
+    id: randomUUID(), pileId, code: `JR-42-${String(index + 1).padStart(5, '0')}`, sampleType: 'routine', duplicateOfId: null, standardId: null,
+    location: { type: 'Point', coordinates: [33.4523 + index * 1e-7, -4.0517] }, gpsAccuracyM: 4, wetMassKg: 10 + (index % 7), moisturePct: 8,
+    increments: 10, position: 'mid-slope', collectedAt: new Date(Date.UTC(2025, 2, 4, 8, 0, index % 60)).toISOString(), collectorId: sampler.id, deviceId: 'bench-device',
+  };
+}
+
+async function freshDatabase() {
+  const dataDir = mkdtempSync(join(tmpdir(), 'heapsight-bench-'));
+  const config = loadConfig({ NODE_ENV: 'production', DATA_DIR: dataDir, LOG_LEVEL: 'silent', STATIC_DIR: join(dataDir, 'none'), JWT_SECRET: 'bench-secret-that-is-long-enough-for-hs256' });
+  const database = await openDatabase(config);
+  initModels(database.sequelize);
+  await migrateToLatest(database);
+  await seedDemo(database);
+  return { dataDir, config, database };
+}
+
+async function apiRate(): Promise<number> {
+  const { dataDir, config, database } = await freshDatabase();
+  const app = createApp({ config, database, logger: createLogger('silent') });
+  const server = app.listen(0, '127.0.0.1');
+  await new Promise((resolve) => server.once('listening', resolve));
+  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: sampler.email, password: DEMO_PASSWORD }) });
+  const { accessToken } = (await login.json()) as { accessToken: string };
+  const headers = { 'content-type': 'application/json', authorization: `Bearer ${accessToken}` };
+  const push = async (mutations: unknown[]) => {
+    const response = await fetch(`${base}/api/sync/push`, { method: 'POST', headers, body: JSON.stringify({ deviceId: 'bench-device', mutations }) });
+    const body = (await response.json()) as { results: { status: string }[] };
+    if (!response.ok || body.results.some((result) => result.status !== 'applied')) {
+      throw new Error(`push failed: ${response.status} ${JSON.stringify(body).slice(0, 300)}`);
+    }
+  };
+  const pileId = randomUUID();
+  await push([{ mutationId: randomUUID(), entity: 'pile', id: pileId, op: 'upsert', baseRevision: null, data: {
+    id: pileId, siteId: DEMO_SITES[0].id, code: 'JR-42-P0001', material: 'mill-discharge', footprint: null, heightM: 2, shapeModel: 'cone',
+    angleOfReposeDeg: 35, bulkDensityTPerM3: null, moisturePct: 6, spotHeights: null, sackCount: null, sackMassKg: null, hazards: [], notes: '',
+  } }]);
+  const batches = Array.from({ length: TOTAL / BATCH }, (_, batch) =>
+    Array.from({ length: BATCH }, (_, offset) => {
+      const data = sampleData(pileId, batch * BATCH + offset);
+      return { mutationId: randomUUID(), entity: 'sample', id: data.id, op: 'upsert', baseRevision: null, data };
+    }));
+  const { ms } = await timeIt(async () => {
+    for (const batch of batches) {
+      await push(batch);
+    }
+  });
+  await new Promise((resolve) => server.close(resolve));
+  await database.close();
+  rmSync(dataDir, { recursive: true, force: true });
+  return TOTAL / (ms / 1000);
+}
+
+async function rawRate(): Promise<number> {
+  const { dataDir, database } = await freshDatabase();
+  const pileId = randomUUID();
+  const now = new Date();
+  const owner = { createdById: sampler.id, createdAt: now, updatedAt: now, deletedAt: null };
+  await database.transaction((transaction) => database.sequelize.getQueryInterface().bulkInsert('piles', [{
+    id: pileId, siteId: DEMO_SITES[0].id, code: 'JR-42-P0001', material: 'mill-discharge', footprint: null, heightM: 2, shapeModel: 'cone',
+    angleOfReposeDeg: 35, bulkDensityTPerM3: null, moisturePct: 6, spotHeights: null, sackCount: null, sackMassKg: null, hazards: '[]', notes: '',
+    deviceId: 'bench-device', revision: 1, ...owner,
+  }], { transaction }));
+  const rows = Array.from({ length: TOTAL }, (_, index) => {
+    const data = sampleData(pileId, index);
+    return { ...data, siteId: DEMO_SITES[0].id, location: JSON.stringify(data.location), collectedAt: new Date(data.collectedAt), revision: index + 2, ...owner };
+  });
+  const { ms } = await timeIt(async () => {
+    for (let start = 0; start < rows.length; start += BATCH) {
+      await database.transaction((transaction) => database.sequelize.getQueryInterface().bulkInsert('samples', rows.slice(start, start + BATCH), { transaction }));
+    }
+  });
+  await database.close();
+  rmSync(dataDir, { recursive: true, force: true });
+  return TOTAL / (ms / 1000);
+}
+
+async function main(): Promise<void> {
+  const raw = await rawRate();
+  const api = await apiRate();
+  reportFigure({
+    group: 'sync', name: `push ${TOTAL.toLocaleString('en')} sample mutations, batches of ${BATCH}, loopback`, value: api, unit: 'records/s',
+    baselineName: 'raw bulkInsert into SQLite (same driver)', baselineValue: raw, higherIsBetter: true, goal: '>= 1/3 of raw (ratio >= 0.33)',
+  });
+  reportFigure({
+    group: 'sync', name: 'peak RSS of the process running the server (and the pushing client)', value: process.resourceUsage().maxRSS / 1024,
+    unit: 'MB', higherIsBetter: false,
+  });
+}
+
+void main().catch((error: unknown) => {
+  process.stderr.write(`${String(error)}\n`);
+  process.exit(1);
+});
