@@ -7,17 +7,28 @@ export interface NavItem {
   readonly icon: string;
   /** Roles that see the item; every role when absent. The server still decides what each may do. */
   readonly roles?: readonly Role[];
+  /** Shown only to a visitor who is not signed in (the sign-in page). */
+  readonly isForSignedOut?: boolean;
   /** Shown in the phone's bottom bar; the rest live behind "More". */
   readonly isPrimaryOnPhone?: boolean;
 }
 
+const EVERY_ROLE: readonly Role[] = ['sampler', 'geologist', 'lab', 'manager', 'admin'];
+
 /** The screens of DESIGN §3, in the order crews and reviewers use them. Add a line when a screen lands. */
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/capture', label: 'Capture', icon: 'add_location_alt', isPrimaryOnPhone: true },
+  { path: '/sync', label: 'Sync', icon: 'sync', isPrimaryOnPhone: true },
   { path: '/safety', label: 'Safety', icon: 'health_and_safety', isPrimaryOnPhone: true },
+  { path: '/people', label: 'People & sites', icon: 'group', roles: ['admin'] },
+  { path: '/outbox', label: 'Outbox', icon: 'outgoing_mail', roles: ['admin'] },
+  { path: '/profile', label: 'Profile', icon: 'account_circle', roles: EVERY_ROLE },
+  { path: '/sign-in', label: 'Sign in', icon: 'login', isForSignedOut: true, isPrimaryOnPhone: true },
 ];
 
-/** The items a user with this role sees (all items for a signed-out user, who sees only public pages). */
+/** The items a user with this role sees (a signed-out visitor sees the open screens and Sign in). */
 export function navItemsFor(role: Role | null, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {
-  return items.filter((item) => !item.roles || (role !== null && item.roles.includes(role)));
+  return items.filter((item) =>
+    item.isForSignedOut ? role === null : !item.roles || (role !== null && item.roles.includes(role)),
+  );
 }

@@ -1,0 +1,6 @@
+import { Routes } from '@angular/router';
+
+/** The page e-mailed links open (`/set-password?token=…`), for invitations and resets alike. */
+export default [
+  { path: '', title: 'Choose a password · Heapsight', loadComponent: () => import('./pages/set-password-page/set-password-page') },
+] satisfies Routes;
