@@ -1,39 +1,55 @@
-import { DecimalPipe } from '@angular/common';
-import { Component, OnInit, signal } from '@angular/core';
+import { Component, computed, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
+import { SyncService } from '../../../../core/sync/sync.service';
+import { CaptureStore } from '../../capture.store';
+import { PhotoThumb } from '../../components/photo-thumb';
 
-/** What the browser reports about this device's storage for our origin. */
-interface DeviceStorage {
-  readonly usedBytes: number;
-  readonly quotaBytes: number;
-  readonly isPersisted: boolean;
-}
-
-/** The crew's home screen: what this device holds, and the way to the safety cautions. */
+/** The crew's home: what waits on this device, and the ways to record a pile, a sample or a pan test. */
 @Component({
   selector: 'hs-capture-home',
-  imports: [DecimalPipe, MatIconModule, MatProgressBarModule, RouterLink],
-  templateUrl: './capture-home.html',
-  styleUrl: './capture-home.scss',
+  imports: [MatButtonModule, MatIconModule, RouterLink, PhotoThumb],
+  template: `
+    <section class="hs-page">
+      <h1>Capture</h1>
+      <p class="queue" role="status"><mat-icon aria-hidden="true">cloud_upload</mat-icon> {{ sync.queueSize() }} changes wait on this phone</p>
+      <nav class="actions" aria-label="Record">
+        <a mat-flat-button routerLink="pile/new"><mat-icon>add_location_alt</mat-icon> New pile</a>
+        <a mat-flat-button routerLink="sample/new"><mat-icon>science</mat-icon> New sample</a>
+        <a mat-flat-button routerLink="pan-test/new"><mat-icon>filter_vintage</mat-icon> Pan test</a>
+      </nav>
+      <h2>Piles ({{ store.livePiles().length }})</h2>
+      <ul class="records">
+        @for (pile of store.livePiles(); track pile.id) {
+          <li><hs-photo-thumb [photo]="photoOf(pile.id)" /> <span><strong>{{ pile.code }}</strong> {{ pile.material }}</span>
+            @if (pile.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
+        }
+      </ul>
+      <h2>Samples ({{ store.samples().length }})</h2>
+      <ul class="records">
+        @for (sample of store.samples(); track sample.id) {
+          <li><hs-photo-thumb [photo]="photoOf(sample.id)" /> <span><strong>{{ sample.code }}</strong> {{ sample.sampleType }}, {{ sample.wetMassKg }} kg</span>
+            @if (sample.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
+        }
+      </ul>
+      <p>Pan tests: {{ store.panTests().length }}</p>
+    </section>
+  `,
+  styles: `
+    .actions { display: flex; flex-wrap: wrap; gap: 8px; }
+    .actions a { min-height: 48px; }
+    .queue { display: flex; align-items: center; gap: 8px; font: var(--mat-sys-title-small); }
+    .records { list-style: none; padding: 0; margin: 0; }
+    .records li { display: flex; align-items: center; gap: 12px; min-height: 56px; border-bottom: 1px solid var(--mat-sys-outline-variant); }
+  `,
 })
-export default class CaptureHome implements OnInit {
-  protected readonly storage = signal<DeviceStorage | null>(null);
+export default class CaptureHome {
+  protected readonly store = inject(CaptureStore);
+  protected readonly sync = inject(SyncService);
+  private readonly photosByOwner = computed(() => new Map(this.store.photos().map((photo) => [photo.ownerId, photo])));
 
-  async ngOnInit(): Promise<void> {
-    const manager = typeof navigator === 'undefined' ? undefined : navigator.storage;
-    if (!manager?.estimate) {
-      return;
-    }
-    const [estimate, isPersisted] = await Promise.all([
-      manager.estimate(),
-      manager.persisted ? manager.persisted() : Promise.resolve(false),
-    ]);
-    this.storage.set({ usedBytes: estimate.usage ?? 0, quotaBytes: estimate.quota ?? 0, isPersisted });
-  }
-
-  protected percentUsed(storage: DeviceStorage): number {
-    return storage.quotaBytes > 0 ? (100 * storage.usedBytes) / storage.quotaBytes : 0;
+  protected photoOf(ownerId: string) {
+    return this.photosByOwner().get(ownerId) ?? null;
   }
 }

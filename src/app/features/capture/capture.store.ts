@@ -1,0 +1,106 @@
+import { Injectable, computed, inject, signal } from '@angular/core';
+import { liveQuery } from 'dexie';
+import { makeHumanCode } from '../../../../shared/sync/human-code';
+import type { EntityData, PanTestData, PileData, SampleData, SyncEntity } from '../../../../shared/sync/protocol';
+import { AuthSession } from '../../core/auth/auth-session';
+import { heapsightDb, type LocalPanTest, type LocalPhoto, type LocalPile, type LocalSample } from '../../core/db/heapsight-db';
+import { saveRecord } from '../../core/sync/device-outbox';
+import { SyncService } from '../../core/sync/sync.service';
+import { resizePhoto } from './photo-resize';
+
+/** Piles, samples, pan tests and photos on this device, as signals over Dexie, and the ways to record them. */
+@Injectable({ providedIn: 'root' })
+export class CaptureStore {
+  private readonly db = heapsightDb();
+  private readonly session = inject(AuthSession);
+  private readonly sync = inject(SyncService);
+
+  readonly piles = signal<LocalPile[]>([]);
+  readonly samples = signal<LocalSample[]>([]);
+  readonly panTests = signal<LocalPanTest[]>([]);
+  readonly photos = signal<LocalPhoto[]>([]);
+  readonly livePiles = computed(() => this.piles().filter((pile) => pile.deletedAt === null));
+
+  constructor() {
+    liveQuery(() => this.db.piles.orderBy('code').toArray()).subscribe((rows) => this.piles.set(rows));
+    liveQuery(() => this.db.samples.orderBy('code').toArray()).subscribe((rows) => this.samples.set(rows.filter((row) => row.deletedAt === null)));
+    liveQuery(() => this.db.panTests.toArray()).subscribe((rows) => this.panTests.set(rows));
+    liveQuery(() => this.db.photos.toArray()).subscribe((rows) => this.photos.set(rows));
+  }
+
+  /** The sites this person may record at, with codes for the human codes. */
+  sites(): { id: string; code: string; name: string }[] {
+    const user = this.session.user() as { siteIds: readonly string[]; sites?: readonly { id: string; code: string; name: string }[] } | null;
+    return user?.sites ? [...user.sites] : (user?.siteIds ?? []).map((id) => ({ id, code: 'XX', name: id }));
+  }
+
+  /** This device's id, as samples record it. */
+  deviceId(): Promise<string> {
+    return this.sync.deviceId();
+  }
+
+  userId(): string {
+    return this.session.user()?.id ?? '';
+  }
+
+  /** Next code `SITE-DEVICE-SEQ` for a pile or sample at a site, counted on this device. */
+  async nextCode(siteCode: string, kind: 'pile' | 'sample'): Promise<string> {
+    const deviceNumber = (await this.sync.deviceNumber()) ?? fallbackDeviceNumber(await this.sync.deviceId());
+    const key = `sequence:${kind}:${siteCode}`;
+    return this.db.transaction('rw', this.db.syncState, async () => {
+      const sequence = (((await this.db.syncState.get(key))?.value as number | undefined) ?? 0) + 1;
+      await this.db.syncState.put({ key, value: sequence });
+      return makeHumanCode({ siteCode, deviceNumber, sequence, kind });
+    });
+  }
+
+  savePile(pile: PileData): Promise<void> {
+    return this.save('pile', pile);
+  }
+
+  saveSample(sample: SampleData): Promise<void> {
+    return this.save('sample', sample);
+  }
+
+  savePanTest(panTest: PanTestData): Promise<void> {
+    return this.save('panTest', panTest);
+  }
+
+  /** Resizes a camera picture and records it against a pile or sample. */
+  async addPhoto(ownerEntity: 'pile' | 'sample', ownerId: string, file: Blob): Promise<void> {
+    const resized = await resizePhoto(file);
+    const photo = {
+      id: crypto.randomUUID(), ownerEntity, ownerId, contentType: 'image/jpeg' as const, originalWidth: resized.originalWidth,
+      originalHeight: resized.originalHeight, byteSize: resized.blob.size, takenAt: new Date().toISOString(),
+    };
+    await saveRecord(this.db, 'photo', photo, { mutationId: crypto.randomUUID(), now: new Date().toISOString() }, {
+      blob: resized.blob, thumbnail: resized.thumbnail, isUploaded: false,
+    });
+  }
+
+  /** Keeps a half-filled form so closing the app loses nothing. */
+  async saveDraft(key: string, value: unknown): Promise<void> {
+    await this.db.drafts.put({ key, value, savedAt: new Date().toISOString() });
+  }
+
+  async draft<T>(key: string): Promise<T | null> {
+    return ((await this.db.drafts.get(key))?.value as T | undefined) ?? null;
+  }
+
+  async clearDraft(key: string): Promise<void> {
+    await this.db.drafts.delete(key);
+  }
+
+  private save<E extends SyncEntity>(entity: E, data: EntityData[E]): Promise<void> {
+    return saveRecord(this.db, entity, data, { mutationId: crypto.randomUUID(), now: new Date().toISOString() });
+  }
+}
+
+/** Before the server has given this device a number: one from its id (9000–9998), so codes still differ per device. */
+function fallbackDeviceNumber(deviceId: string): number {
+  let hash = 0;
+  for (const character of deviceId) {
+    hash = (hash * 31 + character.charCodeAt(0)) >>> 0;
+  }
+  return 9000 + (hash % 999);
+}

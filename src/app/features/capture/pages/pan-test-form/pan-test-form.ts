@@ -1,0 +1,99 @@
+import { Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { Router } from '@angular/router';
+import { PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
+import { COLOUR_SIZE_CLASSES, parseEntityData, type PanTestData } from '../../../../../../shared/sync/protocol';
+import { CaptureStore } from '../../capture.store';
+import { estimatePanGrade } from '../../engine-adapter';
+
+type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
+
+/** A pan test: mass panned, colours per size class with big +/− counters (or weighed gold), live grade. */
+@Component({
+  selector: 'hs-pan-test-form',
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  template: `
+    <section class="hs-page">
+      <h1>Pan test</h1>
+      <form [formGroup]="form" (ngSubmit)="savePanTest()">
+        <mat-form-field><mat-label>Sample</mat-label>
+          <mat-select formControlName="sampleId">@for (sample of store.samples(); track sample.id) { <mat-option [value]="sample.id">{{ sample.code }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Mass panned (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="massPannedKg" /></mat-form-field>
+        <h2>Colours per size class</h2>
+        @for (sizeClass of sizeClasses; track sizeClass) {
+          <div class="counter">
+            <span>{{ sizeClass }}</span>
+            <button mat-stroked-button type="button" [attr.aria-label]="'fewer ' + sizeClass" (click)="count(sizeClass, -1)"><mat-icon>remove</mat-icon></button>
+            <output [attr.aria-label]="sizeClass + ' colours'">{{ counts()[sizeClass] }}</output>
+            <button mat-flat-button type="button" [attr.aria-label]="'more ' + sizeClass" (click)="count(sizeClass, 1)"><mat-icon>add</mat-icon></button>
+          </div>
+        }
+        <mat-form-field><mat-label>Or weighed gold (mg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="goldMassMg" /></mat-form-field>
+        <p class="grade" role="status">
+          @if (grade(); as estimate) { @if ('gradeGpt' in estimate) { Estimated grade {{ estimate.gradeGpt.toFixed(2) }} g/t } @else { {{ estimate.reason }} } }
+        </p>
+        <p class="hs-muted">{{ planningStatement }}</p>
+        @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
+        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save pan test</button>
+      </form>
+    </section>
+  `,
+  styles: `
+    form { display: flex; flex-direction: column; gap: 4px; }
+    .counter { display: grid; grid-template-columns: 1fr 56px 48px 56px; align-items: center; gap: 8px; min-height: 56px; }
+    .counter button { min-height: 48px; } output { text-align: center; font: var(--mat-sys-title-large); }
+    .grade { font: var(--mat-sys-title-medium); } .error { color: var(--mat-sys-error); }
+  `,
+})
+export default class PanTestForm {
+  protected readonly store = inject(CaptureStore);
+  private readonly router = inject(Router);
+  protected readonly sizeClasses = COLOUR_SIZE_CLASSES;
+  protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
+  protected readonly errors = signal<string[]>([]);
+  protected readonly counts = signal<Record<SizeClass, number>>({ 'very-coarse': 0, coarse: 0, medium: 0, fine: 0, 'very-fine': 0 });
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    sampleId: ['', Validators.required],
+    massPannedKg: [2 as number | null],
+    goldMassMg: [null as number | null],
+  });
+  private readonly formValue = toSignal(this.form.valueChanges, { initialValue: this.form.getRawValue() });
+  protected readonly grade = computed(() => {
+    const value = this.formValue();
+    const sample = this.store.samples().find((candidate) => candidate.id === value.sampleId);
+    if (!value.massPannedKg) {
+      return null;
+    }
+    return estimatePanGrade({ massPannedKg: value.massPannedKg, colours: this.colours(), goldMassMg: value.goldMassMg ?? null, panEfficiency: null }, sample?.moisturePct ?? null);
+  });
+
+  protected count(sizeClass: SizeClass, step: number): void {
+    this.counts.update((counts) => ({ ...counts, [sizeClass]: Math.max(0, counts[sizeClass] + step) }));
+  }
+
+  protected async savePanTest(): Promise<void> {
+    const value = this.form.getRawValue();
+    const panTest: PanTestData = {
+      id: crypto.randomUUID(), sampleId: value.sampleId, massPannedKg: value.massPannedKg ?? 0, colours: this.colours(),
+      goldMassMg: value.goldMassMg, panEfficiency: null, testedAt: new Date().toISOString(),
+    };
+    const checked = parseEntityData('panTest', panTest);
+    if (!checked.ok) {
+      this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
+      return;
+    }
+    await this.store.savePanTest(panTest);
+    await this.router.navigateByUrl('/capture');
+  }
+
+  private colours(): PanTestData['colours'] {
+    return COLOUR_SIZE_CLASSES.filter((sizeClass) => this.counts()[sizeClass] > 0).map((sizeClass) => ({ sizeClass, count: this.counts()[sizeClass] }));
+  }
+}

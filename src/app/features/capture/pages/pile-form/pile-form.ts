@@ -1,0 +1,206 @@
+import { Component, computed, inject, signal, viewChild, type OnDestroy, type OnInit } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { Router } from '@angular/router';
+import { HAZARDS, cautionFor, PLANNING_ESTIMATE_STATEMENT, type Hazard } from '../../../../../../shared/safety/cautions';
+import { PILE_MATERIALS, SHAPE_MODELS, parseEntityData, type PileData } from '../../../../../../shared/sync/protocol';
+import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
+import { CaptureStore } from '../../capture.store';
+import { FootprintMap } from '../../components/footprint-map';
+import { measurePileFootprint } from '../../engine-adapter';
+
+/** GPS fixes worse than this (m) are dropped while walking the toe. */
+const MAX_FIX_ACCURACY_M = 10;
+const DRAFT_KEY = 'pile-form';
+
+/** A new pile: material, shape, height, hazards with their cautions, footprint walked or drawn, photos. */
+@Component({
+  selector: 'hs-pile-form',
+  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, CautionCard, FootprintMap],
+  template: `
+    <section class="hs-page">
+      <h1>New pile</h1>
+      <form [formGroup]="form" (ngSubmit)="savePile()">
+        <mat-form-field><mat-label>Site</mat-label>
+          <mat-select formControlName="siteId">@for (site of store.sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} {{ site.name }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Material</mat-label>
+          <mat-select formControlName="material">@for (material of materials; track material) { <mat-option [value]="material">{{ material }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Shape model</mat-label>
+          <mat-select formControlName="shapeModel">@for (shape of shapes; track shape) { <mat-option [value]="shape">{{ shape }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Height (m)</mat-label><input matInput type="number" inputmode="decimal" formControlName="heightM" /></mat-form-field>
+        <mat-form-field><mat-label>Angle of repose (°)</mat-label><input matInput type="number" inputmode="decimal" formControlName="angleOfReposeDeg" /></mat-form-field>
+        <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
+
+        <fieldset><legend>Hazards seen</legend>
+          @for (hazard of hazards; track hazard) {
+            <mat-checkbox [checked]="hasHazard(hazard)" (change)="toggleHazard(hazard)">{{ cautionFor(hazard).title }}</mat-checkbox>
+            @if (hasHazard(hazard)) { <hs-caution-card [caution]="cautionFor(hazard)" /> }
+          }
+        </fieldset>
+        <mat-form-field><mat-label>Owner or crew note</mat-label><textarea matInput formControlName="notes"></textarea></mat-form-field>
+
+        <h2>Footprint</h2>
+        <hs-footprint-map (cornerAdded)="addCorner($event)" />
+        <div class="row">
+          <button mat-stroked-button type="button" (click)="toggleWalking()"><mat-icon>directions_walk</mat-icon> {{ isWalking() ? 'Stop walking' : 'Walk the toe' }}</button>
+          <button mat-stroked-button type="button" (click)="clearCorners()"><mat-icon>undo</mat-icon> Clear</button>
+        </div>
+        <p role="status">{{ corners().length }} corners
+          @if (lastAccuracyM() !== null) { · last fix ±{{ lastAccuracyM() }} m (fixes worse than ±{{ maxAccuracy }} m are dropped) }
+          @if (footprintMeasure(); as measure) { @if ('areaM2' in measure) { · area {{ measure.areaM2.toFixed(0) }} m² (planning estimate) } @else { · {{ measure.reason }} } }
+        </p>
+        <p class="hs-muted">{{ planningStatement }}</p>
+
+        <label class="photo"><mat-icon>photo_camera</mat-icon> Add photo
+          <input type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
+        <p>{{ pendingPhotos().length }} photos</p>
+        @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
+        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save pile</button>
+      </form>
+    </section>
+  `,
+  styles: `
+    form { display: flex; flex-direction: column; gap: 4px; }
+    fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; display: flex; flex-direction: column; gap: 8px; }
+    .row { display: flex; gap: 8px; margin-top: 8px; } button, .photo { min-height: 48px; }
+    .photo { display: flex; align-items: center; gap: 8px; } .error { color: var(--mat-sys-error); }
+  `,
+})
+export default class PileForm implements OnInit, OnDestroy {
+  protected readonly store = inject(CaptureStore);
+  private readonly router = inject(Router);
+  private readonly map = viewChild(FootprintMap);
+  protected readonly materials = PILE_MATERIALS;
+  protected readonly shapes = SHAPE_MODELS;
+  protected readonly hazards = HAZARDS;
+  protected readonly cautionFor = cautionFor;
+  protected readonly maxAccuracy = MAX_FIX_ACCURACY_M;
+  protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    siteId: ['', Validators.required],
+    material: ['sluice-tailings' as PileData['material']],
+    shapeModel: ['cone' as PileData['shapeModel']],
+    heightM: [2 as number | null],
+    angleOfReposeDeg: [34 as number | null],
+    moisturePct: [null as number | null],
+    hazards: [[] as Hazard[]],
+    notes: [''],
+  });
+  protected readonly corners = signal<[number, number][]>([]);
+  protected readonly isWalking = signal(false);
+  protected readonly lastAccuracyM = signal<number | null>(null);
+  protected readonly pendingPhotos = signal<Blob[]>([]);
+  protected readonly errors = signal<string[]>([]);
+  protected readonly footprintMeasure = computed(() => {
+    const footprint = this.footprint();
+    return footprint ? measurePileFootprint(footprint) : null;
+  });
+  private watchId: number | null = null;
+
+  async ngOnInit(): Promise<void> {
+    const draft = await this.store.draft<{ form: Partial<ReturnType<PileForm["form"]["getRawValue"]>>; corners: [number, number][] }>(DRAFT_KEY);
+    if (draft) {
+      this.form.patchValue(draft.form);
+      this.corners.set(draft.corners);
+    }
+    if (!this.form.value.siteId && this.store.sites()[0]) {
+      this.form.patchValue({ siteId: this.store.sites()[0].id });
+    }
+    this.form.valueChanges.subscribe(() => void this.keepDraft());
+  }
+
+  ngOnDestroy(): void {
+    this.stopWalking();
+  }
+
+  protected hasHazard(hazard: Hazard): boolean {
+    return this.form.controls.hazards.value.includes(hazard);
+  }
+
+  protected toggleHazard(hazard: Hazard): void {
+    const current = this.form.controls.hazards.value;
+    this.form.controls.hazards.setValue(current.includes(hazard) ? current.filter((item) => item !== hazard) : [...current, hazard]);
+  }
+
+  protected addCorner(corner: [number, number]): void {
+    this.corners.update((corners) => [...corners, corner]);
+    void this.keepDraft();
+  }
+
+  protected clearCorners(): void {
+    this.corners.set([]);
+    this.map()?.redraw([]);
+  }
+
+  protected toggleWalking(): void {
+    if (this.isWalking()) {
+      this.stopWalking();
+      return;
+    }
+    this.isWalking.set(true);
+    this.watchId = navigator.geolocation.watchPosition((position) => {
+      this.lastAccuracyM.set(Math.round(position.coords.accuracy));
+      if (position.coords.accuracy <= MAX_FIX_ACCURACY_M) {
+        this.addCorner([position.coords.longitude, position.coords.latitude]);
+        this.map()?.redraw(this.corners());
+      }
+    }, () => this.stopWalking(), { enableHighAccuracy: true });
+  }
+
+  protected keepPhoto(event: Event): void {
+    const file = (event.target as HTMLInputElement).files?.[0];
+    if (file) {
+      this.pendingPhotos.update((photos) => [...photos, file]);
+    }
+  }
+
+  protected async savePile(): Promise<void> {
+    const value = this.form.getRawValue();
+    const site = this.store.sites().find((candidate) => candidate.id === value.siteId);
+    if (!site) {
+      this.errors.set(['Choose a site']);
+      return;
+    }
+    const pile: PileData = {
+      id: crypto.randomUUID(), siteId: site.id, code: await this.store.nextCode(site.code, 'pile'), material: value.material,
+      footprint: this.footprint(), heightM: value.heightM, shapeModel: value.shapeModel, angleOfReposeDeg: value.angleOfReposeDeg,
+      bulkDensityTPerM3: null, moisturePct: value.moisturePct, spotHeights: null, sackCount: null, sackMassKg: null, hazards: value.hazards, notes: value.notes,
+    };
+    const checked = parseEntityData('pile', pile);
+    if (!checked.ok) {
+      this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
+      return;
+    }
+    await this.store.savePile(pile);
+    for (const photo of this.pendingPhotos()) {
+      await this.store.addPhoto('pile', pile.id, photo);
+    }
+    await this.store.clearDraft(DRAFT_KEY);
+    await this.router.navigateByUrl('/capture');
+  }
+
+  private footprint(): PileData['footprint'] {
+    const corners = this.corners();
+    return corners.length >= 3 ? { type: 'Polygon', coordinates: [[...corners, corners[0]]] } : null;
+  }
+
+  private stopWalking(): void {
+    if (this.watchId !== null) {
+      navigator.geolocation.clearWatch(this.watchId);
+      this.watchId = null;
+    }
+    this.isWalking.set(false);
+  }
+
+  private keepDraft(): Promise<void> {
+    return this.store.saveDraft(DRAFT_KEY, { form: this.form.getRawValue(), corners: this.corners() });
+  }
+}

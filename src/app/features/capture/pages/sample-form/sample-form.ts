@@ -1,0 +1,96 @@
+import { Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { Router } from '@angular/router';
+import { SAMPLE_TYPES, parseEntityData, type SampleData } from '../../../../../../shared/sync/protocol';
+import { CaptureStore } from '../../capture.store';
+
+/** A new sample of a pile: type, increments, wet mass, moisture, position, GPS point and photos. */
+@Component({
+  selector: 'hs-sample-form',
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  template: `
+    <section class="hs-page">
+      <h1>New sample</h1>
+      <form [formGroup]="form" (ngSubmit)="saveSample()">
+        <mat-form-field><mat-label>Pile</mat-label>
+          <mat-select formControlName="pileId">@for (pile of store.livePiles(); track pile.id) { <mat-option [value]="pile.id">{{ pile.code }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Sample type</mat-label>
+          <mat-select formControlName="sampleType">@for (type of types; track type) { <mat-option [value]="type">{{ type }}</mat-option> }</mat-select>
+        </mat-form-field>
+        <mat-form-field><mat-label>Increments</mat-label><input matInput type="number" inputmode="numeric" formControlName="increments" /></mat-form-field>
+        <mat-form-field><mat-label>Wet mass (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="wetMassKg" /></mat-form-field>
+        <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
+        <mat-form-field><mat-label>Position on pile</mat-label><input matInput formControlName="position" /></mat-form-field>
+        <label class="photo"><mat-icon>photo_camera</mat-icon> Add photo
+          <input type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
+        <p>{{ photos().length }} photos</p>
+        @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
+        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save sample</button>
+      </form>
+    </section>
+  `,
+  styles: `form { display: flex; flex-direction: column; gap: 4px; } button, .photo { min-height: 48px; } .photo { display: flex; align-items: center; gap: 8px; } .error { color: var(--mat-sys-error); }`,
+})
+export default class SampleForm {
+  protected readonly store = inject(CaptureStore);
+  private readonly router = inject(Router);
+  protected readonly types = SAMPLE_TYPES;
+  protected readonly photos = signal<Blob[]>([]);
+  protected readonly errors = signal<string[]>([]);
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    pileId: ['', Validators.required],
+    sampleType: ['routine' as SampleData['sampleType']],
+    increments: [8],
+    wetMassKg: [null as number | null],
+    moisturePct: [null as number | null],
+    position: [''],
+  });
+  private location: SampleData['location'] = null;
+  private accuracyM: number | null = null;
+
+  constructor() {
+    navigator.geolocation?.getCurrentPosition((position) => {
+      this.location = { type: 'Point', coordinates: [position.coords.longitude, position.coords.latitude] };
+      this.accuracyM = position.coords.accuracy;
+    }, () => undefined, { enableHighAccuracy: true, timeout: 10_000 });
+  }
+
+  protected keepPhoto(event: Event): void {
+    const file = (event.target as HTMLInputElement).files?.[0];
+    if (file) {
+      this.photos.update((photos) => [...photos, file]);
+    }
+  }
+
+  protected async saveSample(): Promise<void> {
+    const value = this.form.getRawValue();
+    const pile = this.store.livePiles().find((candidate) => candidate.id === value.pileId);
+    const site = this.store.sites().find((candidate) => candidate.id === pile?.siteId);
+    if (!pile || !site) {
+      this.errors.set(['Choose the pile']);
+      return;
+    }
+    const sample: SampleData = {
+      id: crypto.randomUUID(), pileId: pile.id, code: await this.store.nextCode(site.code, 'sample'), sampleType: value.sampleType,
+      duplicateOfId: null, standardId: null, location: this.location, gpsAccuracyM: this.accuracyM, wetMassKg: value.wetMassKg,
+      moisturePct: value.moisturePct, increments: value.increments, position: value.position, collectedAt: new Date().toISOString(),
+      collectorId: this.store.userId(), deviceId: await this.store.deviceId(),
+    };
+    const checked = parseEntityData('sample', sample);
+    if (!checked.ok) {
+      this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
+      return;
+    }
+    await this.store.saveSample(sample);
+    for (const photo of this.photos()) {
+      await this.store.addPhoto('sample', sample.id, photo);
+    }
+    await this.router.navigateByUrl('/capture');
+  }
+}
