@@ -19,7 +19,6 @@ const EVERY_ROLE: readonly Role[] = ['sampler', 'geologist', 'lab', 'manager', '
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/capture', label: 'Capture', icon: 'add_location_alt', isPrimaryOnPhone: true },
   { path: '/sync', label: 'Sync', icon: 'sync', isPrimaryOnPhone: true },
-  { path: '/sync', label: 'Sync', icon: 'sync', isPrimaryOnPhone: true },
   { path: '/safety', label: 'Safety', icon: 'health_and_safety', isPrimaryOnPhone: true },
   { path: '/people', label: 'People & sites', icon: 'group', roles: ['admin'] },
   { path: '/outbox', label: 'Outbox', icon: 'outgoing_mail', roles: ['admin'] },
