@@ -1,10 +1,10 @@
-import { join } from 'node:path';
 import { Router, type RequestHandler } from 'express';
 import type { AppContext } from '../app';
 import { captureRoutes } from '../capture/capture.routes';
 import { CaptureService } from '../capture/capture.service';
 import { ImageJobs } from '../photos/image-jobs';
-import { LocalDiskPhotoStore, type PhotoStore } from '../photos/photo-store';
+import type { PhotoStore } from '../photos/photo-store';
+import { createPhotoStore } from '../photos/photo-store-factory';
 import { photosRoutes } from '../photos/photos.routes';
 import { PhotosService } from '../photos/photos.service';
 import { syncRoutes } from './sync.routes';
@@ -18,11 +18,11 @@ export interface CaptureSyncServices {
   readonly imageJobs: ImageJobs;
 }
 
-/** Builds the services; photos go to DATA_DIR/photos unless another store is passed (e.g. S3 later). */
+/** Builds the services; photos go where PHOTO_STORE says (DATA_DIR/photos by default) unless a store is passed. */
 export function createCaptureSyncServices(context: AppContext, photoStore?: PhotoStore): CaptureSyncServices {
   const sync = new SyncService(context.database);
   const imageJobs = new ImageJobs();
-  const store = photoStore ?? new LocalDiskPhotoStore(join(context.config.dataDir, 'photos'));
+  const store = photoStore ?? createPhotoStore(context.config);
   return { sync, capture: new CaptureService(sync), photos: new PhotosService(context.database, store, imageJobs, context.logger), imageJobs };
 }
 
