@@ -19,3 +19,4 @@ export * from './trial';
 export * from './heatmap';
 export * from './shortlist';
 export * from './estimate';
+export * from './qcInsertion';
