@@ -15,6 +15,8 @@ import type { Config } from './lib/config';
 import { apiNotFound, errorMiddleware } from './lib/errors';
 import { createMailService } from './mail/mail.service';
 import { outboxRoutes } from './mail/outbox.routes';
+import { createReviewRoutes } from './review/review.component';
+import { clientConfigRoutes } from './review/review.routes';
 import { createSitesService } from './sites/sites.service';
 import { sitesRoutes } from './sites/sites.routes';
 import { captureSyncRoutes, createCaptureSyncServices } from './sync/capture-sync.component';
@@ -53,6 +55,7 @@ export function createApp(context: AppContext): Express {
   api.use(express.json({ limit: JSON_BODY_LIMIT, strict: true }));
   api.use(healthRoutes(database));
   api.use(authRoutes(auth, logger));
+  api.use(clientConfigRoutes(config));
 
   // Every route mounted on `signedIn` requires a valid access token (the wall answers 401 before
   // the route runs; unknown paths still get their 404). Mount new components here, and give each
@@ -63,6 +66,7 @@ export function createApp(context: AppContext): Express {
   signedIn.use(peopleRoutes(createPeopleService({ database, mail, publicUrl })));
   signedIn.use(outboxRoutes());
   signedIn.use(captureSyncRoutes(createCaptureSyncServices(context), authenticate));
+  signedIn.use(createReviewRoutes(context));
   api.use(requireSignInFor(signedIn));
   api.use(signedIn);
   api.use(apiNotFound);

@@ -22,14 +22,17 @@ export type Permission =
   | 'shortlist:read'
   | 'people:manage'
   | 'sites:manage'
-  | 'outbox:read';
+  | 'outbox:read'
+  // Review desk: uploading a site's georeferenced background image (admin).
+  | 'site-image:manage';
 
 const GRANTS: Record<Role, readonly Permission[]> = {
   sampler: ['site:read', 'capture:write'],
   geologist: ['site:read', 'capture:write', 'capture:resolve-conflict', 'lab:manage', 'lab:results', 'calibration:manage', 'trials:manage', 'shortlist:read'],
   lab: ['lab:results'],
   manager: ['site:read', 'trials:manage', 'economics:manage', 'shortlist:read'],
-  admin: ['site:read', 'shortlist:read', 'people:manage', 'sites:manage', 'outbox:read'],
+  // 'site-image:manage' added by the review desk.
+  admin: ['site:read', 'shortlist:read', 'people:manage', 'sites:manage', 'outbox:read', 'site-image:manage'],
 };
 
 /** What a permission is being asked about. Absent fields are not checked. */

@@ -9,6 +9,7 @@ import { initPanTestModel } from '../capture/pan-test.model';
 import { initPileModel } from '../capture/pile.model';
 import { initSampleModel } from '../capture/sample.model';
 import { initPhotoModel } from '../photos/photo.model';
+import { initSiteImageModel } from '../review/site-image.model';
 import { initLabModels } from '../lab/lab.models';
 import { initOrganizationModel } from '../sites/organization.model';
 import { initSiteModel } from '../sites/site.model';
@@ -29,5 +30,6 @@ export function initModels(sequelize: Sequelize): void {
   initPanTestModel(sequelize);
   initPhotoModel(sequelize);
   initSyncModels(sequelize);
+  initSiteImageModel(sequelize);
   initLabModels(sequelize);
 }

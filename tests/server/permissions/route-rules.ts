@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import type { Role } from '../../../shared/accounts/roles';
 import type { MatrixContext } from './matrix-context';
+import { CAMP_BOX, makePng, squareFootprint, uploadSiteImage } from '../review/support/review-fixtures';
 
 /**
  * THE ROLE × ROUTE TABLE. Every route the app serves under /api has exactly one rule here, and
@@ -86,6 +87,19 @@ async function newStoredPhotoId(context: MatrixContext, siteCode: 'JR' | 'IF' = 
   await request(context.app).put(`/api/photos/${photo.id}`).set('Authorization', `Bearer ${context.tokens[owner]}`)
     .attach('photo', FIXTURE_PHOTO, { filename: 'pile.jpg', contentType: 'image/jpeg' });
   return photo.id;
+}
+
+// ── review desk: a pile with a footprint (so it can be estimated) and a stored site image ────
+async function newEstimablePileId(context: MatrixContext, siteCode: 'JR' | 'IF' = 'JR') {
+  const pile = { ...matrixPile(context, context.sites[siteCode], siteCode), footprint: squareFootprint(33.4518, -4.0512, 10) };
+  await pushAs(context, 'geologist', [{ mutationId: randomUUID(), entity: 'pile', id: pile.id, op: 'upsert', baseRevision: null, data: pile }]);
+  return pile.id;
+}
+
+/** Makes sure the site has an image (uploaded by the demo admin) and answers the site id. */
+async function siteWithImage(context: MatrixContext, siteId: string) {
+  await uploadSiteImage(context.app, context.tokens.admin, siteId, await makePng());
+  return siteId;
 }
 
 export const ROUTE_RULES: readonly RouteRule[] = [
@@ -171,5 +185,33 @@ export const ROUTE_RULES: readonly RouteRule[] = [
     request: async (context) => ({ url: `/api/photos/${await newStoredPhotoId(context)}?size=full` }),
     outOfScope: async (context) => ({ url: `/api/photos/${await newStoredPhotoId(context, 'IF')}` }),
     reachesOutOfScope: ['geologist', 'manager', 'admin'],
+  },
+  // ── review desk ──────────────────────────────────────────────────────────────────────────
+  { route: 'GET /api/client-config', allowed: 'public', request: () => ({ url: '/api/client-config' }) },
+  {
+    route: 'GET /api/piles/:id/estimate', allowed: SITE_READERS,
+    request: async (context) => ({ url: `/api/piles/${await newEstimablePileId(context)}/estimate` }),
+    outOfScope: async (context) => ({ url: `/api/piles/${await newEstimablePileId(context, 'IF')}/estimate` }),
+    reachesOutOfScope: ['geologist', 'manager', 'admin'],
+  },
+  {
+    route: 'GET /api/review/sites/:siteId', allowed: SITE_READERS,
+    request: (context) => ({ url: `/api/review/sites/${context.sites.JR}` }),
+    outOfScope: (context) => ({ url: `/api/review/sites/${context.sites.outside}` }),
+  },
+  {
+    route: 'PUT /api/sites/:id/image', allowed: ADMIN,
+    // With an image already stored, a PUT of corners alone moves its box (no file needed).
+    request: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.outside)}/image`, body: CAMP_BOX }),
+  },
+  {
+    route: 'GET /api/sites/:id/image-info', allowed: SITE_READERS,
+    request: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.JR)}/image-info` }),
+    outOfScope: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.outside)}/image-info` }),
+  },
+  {
+    route: 'GET /api/sites/:id/image', allowed: SITE_READERS,
+    request: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.JR)}/image` }),
+    outOfScope: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.outside)}/image` }),
   },
 ];
