@@ -6,6 +6,9 @@ import { createTestApp, type TestApp } from '../support/test-app';
 import { linkIn, startMailCatcher, type MailCatcher } from './support/mail-catcher';
 import { signInAs } from './support/sign-in';
 
+// bcrypt (about 70 ms a hash) on two shared cores: a full run can take several times longer than alone.
+jest.setTimeout(30_000);
+
 const NEW_PASSWORD = 'tailings-at-dawn-42';
 
 describe('invitations by e-mail', () => {

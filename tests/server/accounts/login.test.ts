@@ -7,6 +7,9 @@ import { LOGIN_FAILURES_PER_ACCOUNT, LOGIN_FAILURES_PER_IP } from '../../../serv
 import { DEMO_PASSWORD, DEMO_SITES } from '../../../server/demo/demo-scenario';
 import { createTestApp, type TestApp } from '../support/test-app';
 
+// bcrypt (about 70 ms a hash) on two shared cores: a full run can take several times longer than alone.
+jest.setTimeout(30_000);
+
 const SAMPLER = 'sampler@demo.heapsight.test';
 
 describe('POST /api/auth/login', () => {

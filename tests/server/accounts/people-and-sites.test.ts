@@ -6,6 +6,9 @@ import { Site } from '../../../server/sites/site.model';
 import { createTestApp, type TestApp } from '../support/test-app';
 import { signInAs } from './support/sign-in';
 
+// bcrypt (about 70 ms a hash) on two shared cores: a full run can take several times longer than alone.
+jest.setTimeout(30_000);
+
 const [JR, IF] = DEMO_SITES;
 const person = (role: string) => DEMO_PEOPLE.find((candidate) => candidate.role === role) as (typeof DEMO_PEOPLE)[number];
 

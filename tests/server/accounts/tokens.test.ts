@@ -6,6 +6,9 @@ import { User } from '../../../server/accounts/user.model';
 import { createTestApp, type TestApp } from '../support/test-app';
 import { signInAs } from './support/sign-in';
 
+// bcrypt (about 70 ms a hash) on two shared cores: a full run can take several times longer than alone.
+jest.setTimeout(30_000);
+
 const base64url = (value: object) => Buffer.from(JSON.stringify(value)).toString('base64url');
 
 describe('access tokens', () => {

@@ -5,6 +5,9 @@ import { createTestApp, type TestApp } from '../support/test-app';
 import { createMatrixContext, type MatrixContext } from './matrix-context';
 import { ROUTE_RULES, type RequestSpec, type RouteRule } from './route-rules';
 
+// bcrypt (about 70 ms a hash) on two shared cores: a full run can take several times longer than alone.
+jest.setTimeout(30_000);
+
 /** The role × route matrix: see route-rules.ts for the table and how to add a route. */
 let testApp: TestApp;
 let context: MatrixContext;
