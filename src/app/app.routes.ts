@@ -6,7 +6,6 @@ export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'capture' },
   { path: 'capture', loadChildren: () => import('./features/capture/capture.routes') },
   { path: 'sync', loadChildren: () => import('./features/sync/sync.routes') },
-  { path: 'sync', loadChildren: () => import('./features/sync/sync.routes') },
   { path: 'safety', loadChildren: () => import('./features/safety/safety.routes') },
   { path: 'sign-in', loadChildren: () => import('./features/sign-in/sign-in.routes') },
   { path: 'set-password', loadChildren: () => import('./features/sign-in/set-password.routes') },
