@@ -17,6 +17,7 @@ import { createMailService } from './mail/mail.service';
 import { outboxRoutes } from './mail/outbox.routes';
 import { createReviewRoutes } from './review/review.component';
 import { clientConfigRoutes } from './review/review.routes';
+import { trialsEconomicsShortlistRoutes } from './shortlist/shortlist.component';
 import { createSitesService } from './sites/sites.service';
 import { sitesRoutes } from './sites/sites.routes';
 import { captureSyncRoutes, createCaptureSyncServices } from './sync/capture-sync.component';
@@ -66,6 +67,7 @@ export function createApp(context: AppContext): Express {
   signedIn.use(peopleRoutes(createPeopleService({ database, mail, publicUrl })));
   signedIn.use(outboxRoutes());
   signedIn.use(captureSyncRoutes(createCaptureSyncServices(context), authenticate));
+  signedIn.use(trialsEconomicsShortlistRoutes({ database, mail }));
   signedIn.use(createReviewRoutes(context));
   api.use(requireSignInFor(signedIn));
   api.use(signedIn);

@@ -4,6 +4,7 @@ import { initDeviceModel } from '../accounts/device.model';
 import { initMembershipModel } from '../accounts/membership.model';
 import { initRefreshTokenModel } from '../accounts/refresh-token.model';
 import { initUserModel } from '../accounts/user.model';
+import { initEconomicsModels } from '../economics/economics.model';
 import { initMailMessageModel } from '../mail/mail-message.model';
 import { initPanTestModel } from '../capture/pan-test.model';
 import { initPileModel } from '../capture/pile.model';
@@ -14,6 +15,7 @@ import { initLabModels } from '../lab/lab.models';
 import { initOrganizationModel } from '../sites/organization.model';
 import { initSiteModel } from '../sites/site.model';
 import { initSyncModels } from '../sync/sync.models';
+import { initTrialModel } from '../trials/trial.model';
 
 /** Binds every model to this database, once at start-up. Add a line when a component adds a model. */
 export function initModels(sequelize: Sequelize): void {
@@ -30,6 +32,8 @@ export function initModels(sequelize: Sequelize): void {
   initPanTestModel(sequelize);
   initPhotoModel(sequelize);
   initSyncModels(sequelize);
+  initTrialModel(sequelize);
+  initEconomicsModels(sequelize);
   initSiteImageModel(sequelize);
   initLabModels(sequelize);
 }

@@ -2,8 +2,9 @@ import type { Migration } from '../migration';
 import { organizationsSitesUsers } from './0001-organizations-sites-users';
 import { devicesTokensMail } from './0002-devices-tokens-mail';
 import { captureSyncPhotos } from './0003-capture-sync-photos';
+import { trialsEconomics } from './0005-trials-economics';
 import { reviewDesk } from './0004-review-desk';
 import { labLoop } from './0006-lab-loop';
 
 /** Every migration, in the order it runs. Append; never edit one that has shipped. */
-export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk];
+export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk, trialsEconomics];

@@ -102,6 +102,24 @@ async function siteWithImage(context: MatrixContext, siteId: string) {
   return siteId;
 }
 
+// ── trials, economics and the shortlist: helpers ───────────────────────────────────────────
+const SHORTLIST_READERS: readonly Role[] = ['geologist', 'manager', 'admin'];
+const TRIAL_KEEPERS: readonly Role[] = ['geologist', 'manager'];
+
+/** A valid trial over a new JR pile (two-product grades with c > f > t). */
+async function matrixTrial(context: MatrixContext) {
+  const { pile } = await newPile(context, 'geologist');
+  return {
+    siteId: context.sites.JR, pileIds: [pile.id], trialDate: '2025-05-10', equipmentNote: 'matrix', feedMassKg: 100, feedGradeGpt: 2,
+    concentrateMassKg: 1, concentrateGradeGpt: 150, tailingsGradeGpt: 0.6,
+  };
+}
+
+async function newTrialId(context: MatrixContext): Promise<string> {
+  const response = await request(context.app).post('/api/trials').set('Authorization', `Bearer ${context.tokens.manager}`).send(await matrixTrial(context));
+  return response.body.id as string;
+}
+
 export const ROUTE_RULES: readonly RouteRule[] = [
   // ── health and sign-in (public) ──────────────────────────────────────────────────────────
   { route: 'GET /api/health', allowed: 'public', request: () => ({ url: '/api/health' }) },
@@ -213,5 +231,34 @@ export const ROUTE_RULES: readonly RouteRule[] = [
     route: 'GET /api/sites/:id/image', allowed: SITE_READERS,
     request: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.JR)}/image` }),
     outOfScope: async (context) => ({ url: `/api/sites/${await siteWithImage(context, context.sites.outside)}/image` }),
+  },
+  // ── trials, economics and the shortlist ─────────────────────────────────────────────────
+  { route: 'GET /api/trials', allowed: SHORTLIST_READERS, request: (context) => ({ url: `/api/trials?site=${context.sites.JR}` }), outOfScope: (context) => ({ url: `/api/trials?site=${context.sites.outside}` }) },
+  { route: 'POST /api/trials', allowed: TRIAL_KEEPERS, request: async (context) => ({ url: '/api/trials', body: await matrixTrial(context) }) },
+  {
+    route: 'PATCH /api/trials/:id', allowed: TRIAL_KEEPERS,
+    request: async (context) => ({ url: `/api/trials/${await newTrialId(context)}`, body: { status: 'pending' } }),
+  },
+  {
+    route: 'GET /api/economics/:siteId', allowed: SHORTLIST_READERS,
+    request: (context) => ({ url: `/api/economics/${context.sites.JR}` }), outOfScope: (context) => ({ url: `/api/economics/${context.sites.outside}` }),
+  },
+  { route: 'PATCH /api/economics/:siteId', allowed: ['manager'], request: (context) => ({ url: `/api/economics/${context.sites.JR}`, body: { fixedCostPerPile: 250 } }) },
+  {
+    route: 'GET /api/shortlist', allowed: SHORTLIST_READERS,
+    request: (context) => ({ url: `/api/shortlist?site=${context.sites.JR}` }), outOfScope: (context) => ({ url: `/api/shortlist?site=${context.sites.outside}` }),
+  },
+  {
+    route: 'GET /api/shortlist/report.pdf', allowed: SHORTLIST_READERS,
+    request: (context) => ({ url: `/api/shortlist/report.pdf?site=${context.sites.JR}` }), outOfScope: (context) => ({ url: `/api/shortlist/report.pdf?site=${context.sites.outside}` }),
+  },
+  {
+    route: 'GET /api/shortlist/report.csv', allowed: SHORTLIST_READERS,
+    request: (context) => ({ url: `/api/shortlist/report.csv?site=${context.sites.JR}` }), outOfScope: (context) => ({ url: `/api/shortlist/report.csv?site=${context.sites.outside}` }),
+  },
+  {
+    route: 'POST /api/shortlist/report/send', allowed: SHORTLIST_READERS,
+    request: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.JR, to: ['matrix@example.test'] } }),
+    outOfScope: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.outside, to: ['matrix@example.test'] } }),
   },
 ];
