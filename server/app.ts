@@ -11,6 +11,7 @@ import { peopleRoutes } from './accounts/people.routes';
 import { requireSignInFor } from './accounts/route-table';
 import type { Database } from './db/database';
 import { healthRoutes } from './health/health.routes';
+import { labLoopRoutes } from './lab/lab.component';
 import type { Config } from './lib/config';
 import { apiNotFound, errorMiddleware } from './lib/errors';
 import { createMailService } from './mail/mail.service';
@@ -66,6 +67,7 @@ export function createApp(context: AppContext): Express {
   signedIn.use(sitesRoutes(createSitesService({ database })));
   signedIn.use(peopleRoutes(createPeopleService({ database, mail, publicUrl })));
   signedIn.use(outboxRoutes());
+  signedIn.use(labLoopRoutes({ database, mail }));
   signedIn.use(captureSyncRoutes(createCaptureSyncServices(context), authenticate));
   signedIn.use(trialsEconomicsShortlistRoutes({ database, mail }));
   signedIn.use(createReviewRoutes(context));

@@ -6,6 +6,7 @@ import type { Database } from '../db/database';
 import { Organization } from '../sites/organization.model';
 import { Site } from '../sites/site.model';
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PEOPLE, DEMO_SITES } from './demo-scenario';
+import { seedDemoLab } from './seed-demo-lab';
 import { seedDemoTrialsAndEconomics } from './seed-demo-trials-economics';
 
 /** bcrypt cost for the demo accounts; 10 is the library default and about 70 ms here. */
@@ -43,5 +44,6 @@ export async function seedDemo(database: Database): Promise<{ isNew: boolean }> 
     }
   });
   await seedDemoTrialsAndEconomics(database);
+  await seedDemoLab(database);
   return { isNew: true };
 }

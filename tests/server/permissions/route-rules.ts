@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import type { Role } from '../../../shared/accounts/roles';
 import type { MatrixContext } from './matrix-context';
+import { LAB_ROUTE_RULES } from '../lab/support/lab-route-rules';
 import { CAMP_BOX, makePng, squareFootprint, uploadSiteImage } from '../review/support/review-fixtures';
 
 /**
@@ -261,4 +262,6 @@ export const ROUTE_RULES: readonly RouteRule[] = [
     request: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.JR, to: ['matrix@example.test'] } }),
     outOfScope: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.outside, to: ['matrix@example.test'] } }),
   },
+  // ── lab loop: batches, results, QA/QC, calibration, exports (rules in tests/server/lab/support) ──
+  ...LAB_ROUTE_RULES,
 ];
