@@ -14,11 +14,17 @@ export interface NavItem {
 }
 
 const EVERY_ROLE: readonly Role[] = ['sampler', 'geologist', 'lab', 'manager', 'admin'];
+/** Everyone who reads a site's piles and samples (not the lab). */
+const SITE_READERS: readonly Role[] = ['sampler', 'geologist', 'manager', 'admin'];
 
 /** The screens of DESIGN §3, in the order crews and reviewers use them. Add a line when a screen lands. */
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/capture', label: 'Capture', icon: 'add_location_alt', isPrimaryOnPhone: true },
   { path: '/sync', label: 'Sync', icon: 'sync', isPrimaryOnPhone: true },
+  { path: '/site-map', label: 'Site map', icon: 'map', roles: SITE_READERS },
+  { path: '/piles', label: 'Piles', icon: 'landscape', roles: SITE_READERS },
+  { path: '/samples', label: 'Samples', icon: 'science', roles: SITE_READERS },
+  { path: '/sample-mass', label: 'Sample mass', icon: 'scale', roles: SITE_READERS },
   { path: '/safety', label: 'Safety', icon: 'health_and_safety', isPrimaryOnPhone: true },
   { path: '/people', label: 'People & sites', icon: 'group', roles: ['admin'] },
   { path: '/outbox', label: 'Outbox', icon: 'outgoing_mail', roles: ['admin'] },
