@@ -25,6 +25,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/piles', label: 'Piles', icon: 'landscape', roles: SITE_READERS },
   { path: '/samples', label: 'Samples', icon: 'science', roles: SITE_READERS },
   { path: '/sample-mass', label: 'Sample mass', icon: 'scale', roles: SITE_READERS },
+  { path: '/lab-batches', label: 'Lab batches', icon: 'biotech', roles: ['geologist', 'lab'] },
+  { path: '/qaqc', label: 'QA/QC', icon: 'rule', roles: ['geologist'] },
   { path: '/safety', label: 'Safety', icon: 'health_and_safety', isPrimaryOnPhone: true },
   { path: '/people', label: 'People & sites', icon: 'group', roles: ['admin'] },
   { path: '/outbox', label: 'Outbox', icon: 'outgoing_mail', roles: ['admin'] },
