@@ -7,6 +7,7 @@ import { Organization } from '../sites/organization.model';
 import { Site } from '../sites/site.model';
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PEOPLE, DEMO_SITES } from './demo-scenario';
 import { seedDemoLab } from './seed-demo-lab';
+import { seedDemoCapture } from './seed-demo-capture';
 import { seedDemoTrialsAndEconomics } from './seed-demo-trials-economics';
 
 /** bcrypt cost for the demo accounts; 10 is the library default and about 70 ms here. */
@@ -43,7 +44,8 @@ export async function seedDemo(database: Database): Promise<{ isNew: boolean }> 
       }
     }
   });
-  await seedDemoTrialsAndEconomics(database);
+  await seedDemoCapture(database);
   await seedDemoLab(database);
+  await seedDemoTrialsAndEconomics(database);
   return { isNew: true };
 }
