@@ -167,7 +167,7 @@ function mapThumbnail(document: PDFKit.PDFDocument, view: ShortlistView, x: numb
   if (processing) {
     const [px, py] = project(processing.lon, processing.lat);
     document.rect(px - 3, py - 3, 6, 6).fill(INK);
-    document.font('Helvetica-Bold').fontSize(6.5).text('Processing', px + 5, py - 3, { lineBreak: false });
+    document.font('Helvetica-Bold').fontSize(6.5).text('Processing', px - 16, py + 5, { lineBreak: false });
   }
   // Scale bar: one degree of latitude is about 111.32 km (mean, common practice, no source).
   const metresPerPoint = 111_320 / scale;

@@ -27,6 +27,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/sample-mass', label: 'Sample mass', icon: 'scale', roles: SITE_READERS },
   { path: '/lab-batches', label: 'Lab batches', icon: 'biotech', roles: ['geologist', 'lab'] },
   { path: '/qaqc', label: 'QA/QC', icon: 'rule', roles: ['geologist'] },
+  { path: '/trials', label: 'Trials', icon: 'vibration', roles: ['manager', 'geologist'] },
+  { path: '/shortlist', label: 'Shortlist', icon: 'leaderboard', roles: ['manager', 'admin'] },
   { path: '/safety', label: 'Safety', icon: 'health_and_safety', isPrimaryOnPhone: true },
   { path: '/people', label: 'People & sites', icon: 'group', roles: ['admin'] },
   { path: '/outbox', label: 'Outbox', icon: 'outgoing_mail', roles: ['admin'] },
