@@ -6,6 +6,13 @@
  * End-to-end tests live in e2e/ and run in Chromium through `npm run test:e2e`.
  */
 const nodeTransform = { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json' }] };
+// delaunator and kdbush are published as ES modules, and Jest's own CommonJS loader (which runs ts-jest's
+// output) cannot require an ES module the way Node 20.19+ can. Both packages also ship a UMD build of the
+// same code beside it, so the node projects load that instead; Node and the Angular build use the ES module.
+const esmOnlyPackages = {
+  '^delaunator$': '<rootDir>/node_modules/delaunator/delaunator.js',
+  '^kdbush$': '<rootDir>/node_modules/kdbush/kdbush.js',
+};
 
 module.exports = {
   projects: [
@@ -28,12 +35,14 @@ module.exports = {
       testEnvironment: 'node',
       testMatch: ['<rootDir>/shared/**/*.spec.ts'],
       transform: nodeTransform,
+      moduleNameMapper: esmOnlyPackages,
     },
     {
       displayName: 'server',
       testEnvironment: 'node',
       testMatch: ['<rootDir>/server/**/*.spec.ts', '<rootDir>/tests/**/*.test.ts'],
       transform: nodeTransform,
+      moduleNameMapper: esmOnlyPackages,
       testTimeout: 30000,
     },
   ],

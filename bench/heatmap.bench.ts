@@ -4,8 +4,8 @@
  *    checked to agree to 1e-9 relative. Turf is slow (about 400 million distance calls at full size),
  *    so at full size it runs on a band of rows and its time is scaled up to the whole grid; the output
  *    says so, and agreement is checked on every cell turf computed.
- * 2. The engine's default (search radius from the sample spacing, 12 nearest through its bucket
- *    index) on the full grid, reported beside it.
+ * 2. The engine's default (search radius from the sample spacing, 12 nearest through its kdbush
+ *    k-d tree) on the full grid, reported beside it.
  * Data are invented: seeded random points over a square kilometre with lognormal grades.
  */
 import interpolate from '@turf/interpolate';
@@ -94,7 +94,7 @@ async function main(): Promise<void> {
   });
   reportFigure({
     group: 'heatmap',
-    name: `engine default (radius + 12 nearest, bucket index), ${label}`,
+    name: `engine default (radius + 12 nearest, k-d tree), ${label}`,
     value: engineDefaultMs,
     unit: 'ms',
     baselineName: '@turf/interpolate',

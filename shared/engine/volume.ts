@@ -6,15 +6,15 @@
  *   (prismoidal formula, exact when the section area is quadratic in height, as it is for a convex
  *   toe). When the slope closes the crest before the height is reached, the height is not possible
  *   at that angle: the volume is that of the solid the slope allows, with a warning.
- * - `surveyed`: a Delaunay surface through the spot heights and the toe (height 0), summed as
+ * - `surveyed`: a Delaunay surface (delaunator) through the spot heights and the toe (height 0), summed as
  *   prisms over the base, exact for a surface that is planar between the measured points.
  * - `sacks`: count × mass per sack, and the volume that mass fills at the bulk density.
  */
+import Delaunator from 'delaunator';
 import { Footprint, LonLat, metricsOf, parseFootprint } from './footprint';
 import { PlanePoint, isInsideRing } from './geodesy';
 import { inradiusM, insetAreaM2 } from './offset';
 import { EngineError, EngineWarning, Result, checkNumber, checkNumbers, engineError, fail, ok } from './result';
-import { delaunayTriangles } from './triangulate';
 
 /** How a pile's volume is modelled (DESIGN §6 `shapeModel`). */
 export type ShapeModel = 'cone' | 'flat-topped' | 'surveyed' | 'sacks';
@@ -165,7 +165,12 @@ export function surveyedVolume(input: { readonly footprint: unknown; readonly sp
   let volumeM3 = 0;
   let coveredM2 = 0;
   let triangleCount = 0;
-  for (const [a, b, c] of delaunayTriangles(points)) {
+  const { triangles } = Delaunator.from(points, (point) => point.x, (point) => point.y);
+  for (let first = 0; first < triangles.length; first += 3) {
+    // delaunator turns its triangles counter-clockwise on screen axes (y down), so clockwise here (y north).
+    const a = triangles[first];
+    const b = triangles[first + 2];
+    const c = triangles[first + 1];
     const pa = points[a];
     const pb = points[b];
     const pc = points[c];
