@@ -53,7 +53,7 @@ const TYPE_LETTERS: Record<string, string> = { routine: 'R', duplicate: 'D', bla
               <mat-checkbox [checked]="isAllVisibleSelected()" [indeterminate]="isSomeVisibleSelected()" (change)="toggleAllVisible()" aria-label="Select all shown samples" />
             </th>
             <td mat-cell *matCellDef="let sample">
-              <mat-checkbox [checked]="selected().has(sample.id)" (change)="toggle(sample.id)" [attr.aria-label]="'Select ' + sample.code" />
+              <mat-checkbox [checked]="selected().has(sample.id)" (change)="toggle(sample.id)" [aria-label]="'Select ' + sample.code" />
             </td>
           </ng-container>
           <ng-container matColumnDef="code"><th mat-header-cell *matHeaderCellDef>Sample</th><td mat-cell *matCellDef="let sample">{{ sample.code }}</td></ng-container>
