@@ -3,6 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { SyncService } from '../../../../core/sync/sync.service';
+import { MATERIAL_LABELS, SAMPLE_TYPE_LABELS } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 import { PhotoThumb } from '../../components/photo-thumb';
 
@@ -22,14 +23,14 @@ import { PhotoThumb } from '../../components/photo-thumb';
       <h2>Piles ({{ store.livePiles().length }})</h2>
       <ul class="records">
         @for (pile of store.livePiles(); track pile.id) {
-          <li><hs-photo-thumb [photo]="photoOf(pile.id)" /> <span><strong>{{ pile.code }}</strong> {{ pile.material }}</span>
+          <li><hs-photo-thumb [photo]="photoOf(pile.id)" /> <span><strong>{{ pile.code }}</strong> {{ materialLabels[pile.material] }}</span>
             @if (pile.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
         }
       </ul>
       <h2>Samples ({{ store.samples().length }})</h2>
       <ul class="records">
         @for (sample of store.samples(); track sample.id) {
-          <li><hs-photo-thumb [photo]="photoOf(sample.id)" /> <span><strong>{{ sample.code }}</strong> {{ sample.sampleType }}, {{ sample.wetMassKg }} kg</span>
+          <li><hs-photo-thumb [photo]="photoOf(sample.id)" /> <span><strong>{{ sample.code }}</strong> {{ typeLabels[sample.sampleType] }}@if (sample.wetMassKg !== null) {, {{ sample.wetMassKg }} kg}</span>
             @if (sample.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
         }
       </ul>
@@ -47,6 +48,8 @@ import { PhotoThumb } from '../../components/photo-thumb';
 export default class CaptureHome {
   protected readonly store = inject(CaptureStore);
   protected readonly sync = inject(SyncService);
+  protected readonly materialLabels = MATERIAL_LABELS;
+  protected readonly typeLabels = SAMPLE_TYPE_LABELS;
   private readonly photosByOwner = computed(() => new Map(this.store.photos().map((photo) => [photo.ownerId, photo])));
 
   protected photoOf(ownerId: string) {

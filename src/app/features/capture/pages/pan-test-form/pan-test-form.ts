@@ -9,6 +9,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
 import { COLOUR_SIZE_CLASSES, parseEntityData, type PanTestData } from '../../../../../../shared/sync/protocol';
+import { SIZE_CLASS_LABELS } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 import { estimatePanGrade } from '../../engine-adapter';
 
@@ -29,7 +30,7 @@ type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
         <h2>Colours per size class</h2>
         @for (sizeClass of sizeClasses; track sizeClass) {
           <div class="counter">
-            <span>{{ sizeClass }}</span>
+            <span>{{ sizeLabels[sizeClass] }}</span>
             <button mat-stroked-button type="button" [attr.aria-label]="'fewer ' + sizeClass" (click)="count(sizeClass, -1)"><mat-icon>remove</mat-icon></button>
             <output [attr.aria-label]="sizeClass + ' colours'">{{ counts()[sizeClass] }}</output>
             <button mat-flat-button type="button" [attr.aria-label]="'more ' + sizeClass" (click)="count(sizeClass, 1)"><mat-icon>add</mat-icon></button>
@@ -47,15 +48,16 @@ type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
   `,
   styles: `
     form { display: flex; flex-direction: column; gap: 4px; }
-    .counter { display: grid; grid-template-columns: 1fr 56px 48px 56px; align-items: center; gap: 8px; min-height: 56px; }
-    .counter button { min-height: 48px; } output { text-align: center; font: var(--mat-sys-title-large); }
-    .grade { font: var(--mat-sys-title-medium); } .error { color: var(--mat-sys-error); }
+    .counter { display: grid; grid-template-columns: minmax(0, 1fr) 56px 36px 56px; align-items: center; gap: 6px; min-height: 56px; }
+    .counter button { min-height: 48px; min-width: 56px; width: 56px; padding: 0; } output { text-align: center; font: var(--mat-sys-title-large); }
+    .grade { font: var(--mat-sys-title-medium); } .error { color: var(--mat-sys-error); } button[type=submit] { min-height: 56px; }
   `,
 })
 export default class PanTestForm {
   protected readonly store = inject(CaptureStore);
   private readonly router = inject(Router);
   protected readonly sizeClasses = COLOUR_SIZE_CLASSES;
+  protected readonly sizeLabels = SIZE_CLASS_LABELS;
   protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
   protected readonly errors = signal<string[]>([]);
   protected readonly counts = signal<Record<SizeClass, number>>({ 'very-coarse': 0, coarse: 0, medium: 0, fine: 0, 'very-fine': 0 });

@@ -1,4 +1,5 @@
-import { Component, computed, inject, signal, viewChild, type OnDestroy, type OnInit } from '@angular/core';
+import { Component, computed, inject, signal, type OnDestroy, type OnInit } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -10,6 +11,7 @@ import { Router } from '@angular/router';
 import { HAZARDS, cautionFor, PLANNING_ESTIMATE_STATEMENT, type Hazard } from '../../../../../../shared/safety/cautions';
 import { PILE_MATERIALS, SHAPE_MODELS, parseEntityData, type PileData } from '../../../../../../shared/sync/protocol';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
+import { MATERIAL_LABELS, SHAPE_LABELS, photoCount } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 import { FootprintMap } from '../../components/footprint-map';
 import { measurePileFootprint } from '../../engine-adapter';
@@ -30,13 +32,20 @@ const DRAFT_KEY = 'pile-form';
           <mat-select formControlName="siteId">@for (site of store.sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} {{ site.name }}</mat-option> }</mat-select>
         </mat-form-field>
         <mat-form-field><mat-label>Material</mat-label>
-          <mat-select formControlName="material">@for (material of materials; track material) { <mat-option [value]="material">{{ material }}</mat-option> }</mat-select>
+          <mat-select formControlName="material">@for (material of materials; track material) { <mat-option [value]="material">{{ materialLabels[material] }}</mat-option> }</mat-select>
         </mat-form-field>
         <mat-form-field><mat-label>Shape model</mat-label>
-          <mat-select formControlName="shapeModel">@for (shape of shapes; track shape) { <mat-option [value]="shape">{{ shape }}</mat-option> }</mat-select>
+          <mat-select formControlName="shapeModel">@for (shape of shapes; track shape) { <mat-option [value]="shape">{{ shapeLabels[shape] }}</mat-option> }</mat-select>
         </mat-form-field>
-        <mat-form-field><mat-label>Height (m)</mat-label><input matInput type="number" inputmode="decimal" formControlName="heightM" /></mat-form-field>
-        <mat-form-field><mat-label>Angle of repose (°)</mat-label><input matInput type="number" inputmode="decimal" formControlName="angleOfReposeDeg" /></mat-form-field>
+        @if (shapeModel() === 'sacks') {
+          <mat-form-field><mat-label>Number of sacks</mat-label><input matInput type="number" inputmode="numeric" formControlName="sackCount" /></mat-form-field>
+          <mat-form-field><mat-label>Mass per sack (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="sackMassKg" /></mat-form-field>
+        } @else {
+          <mat-form-field><mat-label>Height (m)</mat-label><input matInput type="number" inputmode="decimal" formControlName="heightM" /></mat-form-field>
+        }
+        @if (shapeModel() === 'flat-topped') {
+          <mat-form-field><mat-label>Angle of repose (°)</mat-label><input matInput type="number" inputmode="decimal" formControlName="angleOfReposeDeg" /></mat-form-field>
+        }
         <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
 
         <fieldset><legend>Hazards seen</legend>
@@ -48,7 +57,7 @@ const DRAFT_KEY = 'pile-form';
         <mat-form-field><mat-label>Owner or crew note</mat-label><textarea matInput formControlName="notes"></textarea></mat-form-field>
 
         <h2>Footprint</h2>
-        <hs-footprint-map (cornerAdded)="addCorner($event)" />
+        <hs-footprint-map [corners]="corners()" (cornerAdded)="addCorner($event)" />
         <div class="row">
           <button mat-stroked-button type="button" (click)="toggleWalking()"><mat-icon>directions_walk</mat-icon> {{ isWalking() ? 'Stop walking' : 'Walk the toe' }}</button>
           <button mat-stroked-button type="button" (click)="clearCorners()"><mat-icon>undo</mat-icon> Clear</button>
@@ -59,9 +68,9 @@ const DRAFT_KEY = 'pile-form';
         </p>
         <p class="hs-muted">{{ planningStatement }}</p>
 
-        <label class="photo"><mat-icon>photo_camera</mat-icon> Add photo
-          <input type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
-        <p>{{ pendingPhotos().length }} photos</p>
+        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> Add photo
+          <input class="hs-file" type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
+        <p role="status">{{ photoCount(pendingPhotos().length) }}</p>
         @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
         <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save pile</button>
       </form>
@@ -70,20 +79,26 @@ const DRAFT_KEY = 'pile-form';
   styles: `
     form { display: flex; flex-direction: column; gap: 4px; }
     fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; display: flex; flex-direction: column; gap: 8px; }
-    .row { display: flex; gap: 8px; margin-top: 8px; } button, .photo { min-height: 48px; }
-    .photo { display: flex; align-items: center; gap: 8px; } .error { color: var(--mat-sys-error); }
+    .row { display: flex; gap: 8px; margin-top: 8px; } button { min-height: 48px; }
+    .photo { display: inline-flex; align-items: center; justify-content: center; gap: 8px; min-height: 48px; padding: 0 20px; border-radius: 24px;
+      border: 1px solid var(--mat-sys-outline); color: var(--mat-sys-primary); font: var(--mat-sys-label-large); cursor: pointer; align-self: flex-start; }
+    .photo:focus-within { outline: 3px solid var(--mat-sys-primary); outline-offset: 2px; }
+    .hs-file { position: absolute; width: 1px; height: 1px; opacity: 0; overflow: hidden; }
+    .error { color: var(--mat-sys-error); } button[type=submit] { min-height: 56px; }
   `,
 })
 export default class PileForm implements OnInit, OnDestroy {
   protected readonly store = inject(CaptureStore);
   private readonly router = inject(Router);
-  private readonly map = viewChild(FootprintMap);
   protected readonly materials = PILE_MATERIALS;
   protected readonly shapes = SHAPE_MODELS;
   protected readonly hazards = HAZARDS;
   protected readonly cautionFor = cautionFor;
   protected readonly maxAccuracy = MAX_FIX_ACCURACY_M;
   protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
+  protected readonly materialLabels = MATERIAL_LABELS;
+  protected readonly shapeLabels = SHAPE_LABELS;
+  protected readonly photoCount = photoCount;
   protected readonly form = inject(NonNullableFormBuilder).group({
     siteId: ['', Validators.required],
     material: ['sluice-tailings' as PileData['material']],
@@ -91,9 +106,12 @@ export default class PileForm implements OnInit, OnDestroy {
     heightM: [2 as number | null],
     angleOfReposeDeg: [34 as number | null],
     moisturePct: [null as number | null],
+    sackCount: [null as number | null],
+    sackMassKg: [null as number | null],
     hazards: [[] as Hazard[]],
     notes: [''],
   });
+  protected readonly shapeModel = toSignal(this.form.controls.shapeModel.valueChanges, { initialValue: this.form.controls.shapeModel.value });
   protected readonly corners = signal<[number, number][]>([]);
   protected readonly isWalking = signal(false);
   protected readonly lastAccuracyM = signal<number | null>(null);
@@ -137,7 +155,7 @@ export default class PileForm implements OnInit, OnDestroy {
 
   protected clearCorners(): void {
     this.corners.set([]);
-    this.map()?.redraw([]);
+    void this.keepDraft();
   }
 
   protected toggleWalking(): void {
@@ -150,7 +168,6 @@ export default class PileForm implements OnInit, OnDestroy {
       this.lastAccuracyM.set(Math.round(position.coords.accuracy));
       if (position.coords.accuracy <= MAX_FIX_ACCURACY_M) {
         this.addCorner([position.coords.longitude, position.coords.latitude]);
-        this.map()?.redraw(this.corners());
       }
     }, () => this.stopWalking(), { enableHighAccuracy: true });
   }
@@ -169,10 +186,12 @@ export default class PileForm implements OnInit, OnDestroy {
       this.errors.set(['Choose a site']);
       return;
     }
+    const isSacks = value.shapeModel === 'sacks';
     const pile: PileData = {
       id: crypto.randomUUID(), siteId: site.id, code: await this.store.nextCode(site.code, 'pile'), material: value.material,
-      footprint: this.footprint(), heightM: value.heightM, shapeModel: value.shapeModel, angleOfReposeDeg: value.angleOfReposeDeg,
-      bulkDensityTPerM3: null, moisturePct: value.moisturePct, spotHeights: null, sackCount: null, sackMassKg: null, hazards: value.hazards, notes: value.notes,
+      footprint: this.footprint(), heightM: isSacks ? null : value.heightM, shapeModel: value.shapeModel,
+      angleOfReposeDeg: value.shapeModel === 'flat-topped' ? value.angleOfReposeDeg : null, bulkDensityTPerM3: null, moisturePct: value.moisturePct, spotHeights: null,
+      sackCount: isSacks ? value.sackCount : null, sackMassKg: isSacks ? value.sackMassKg : null, hazards: value.hazards, notes: value.notes,
     };
     const checked = parseEntityData('pile', pile);
     if (!checked.ok) {

@@ -1,4 +1,5 @@
-import { Component, inject, signal } from '@angular/core';
+import { Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -7,6 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { SAMPLE_TYPES, parseEntityData, type SampleData } from '../../../../../../shared/sync/protocol';
+import { SAMPLE_TYPE_LABELS, photoCount } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 
 /** A new sample of a pile: type, increments, wet mass, moisture, position, GPS point and photos. */
@@ -21,26 +23,43 @@ import { CaptureStore } from '../../capture.store';
           <mat-select formControlName="pileId">@for (pile of store.livePiles(); track pile.id) { <mat-option [value]="pile.id">{{ pile.code }}</mat-option> }</mat-select>
         </mat-form-field>
         <mat-form-field><mat-label>Sample type</mat-label>
-          <mat-select formControlName="sampleType">@for (type of types; track type) { <mat-option [value]="type">{{ type }}</mat-option> }</mat-select>
+          <mat-select formControlName="sampleType">@for (type of types; track type) { <mat-option [value]="type">{{ typeLabels[type] }}</mat-option> }</mat-select>
         </mat-form-field>
+        @if (sampleType() === 'duplicate') {
+          <mat-form-field><mat-label>Duplicate of</mat-label>
+            <mat-select formControlName="duplicateOfId">@for (sample of samplesOfPile(); track sample.id) { <mat-option [value]="sample.id">{{ sample.code }}</mat-option> }</mat-select>
+          </mat-form-field>
+        }
+        @if (sampleType() === 'standard') {
+          <mat-form-field><mat-label>Reference standard (code on the sachet)</mat-label><input matInput formControlName="standardId" /></mat-form-field>
+        }
         <mat-form-field><mat-label>Increments</mat-label><input matInput type="number" inputmode="numeric" formControlName="increments" /></mat-form-field>
         <mat-form-field><mat-label>Wet mass (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="wetMassKg" /></mat-form-field>
         <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
         <mat-form-field><mat-label>Position on pile</mat-label><input matInput formControlName="position" /></mat-form-field>
-        <label class="photo"><mat-icon>photo_camera</mat-icon> Add photo
-          <input type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
-        <p>{{ photos().length }} photos</p>
+        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> Add photo
+          <input class="hs-file" type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
+        <p role="status">{{ photoCount(photos().length) }} · GPS {{ accuracyM() === null ? 'waiting for a fix' : '±' + accuracyM() + ' m' }}</p>
         @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
         <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save sample</button>
       </form>
     </section>
   `,
-  styles: `form { display: flex; flex-direction: column; gap: 4px; } button, .photo { min-height: 48px; } .photo { display: flex; align-items: center; gap: 8px; } .error { color: var(--mat-sys-error); }`,
+  styles: `
+    form { display: flex; flex-direction: column; gap: 4px; } button { min-height: 48px; } button[type=submit] { min-height: 56px; }
+    .photo { display: inline-flex; align-items: center; justify-content: center; gap: 8px; min-height: 48px; padding: 0 20px; border-radius: 24px;
+      border: 1px solid var(--mat-sys-outline); color: var(--mat-sys-primary); font: var(--mat-sys-label-large); cursor: pointer; align-self: flex-start; }
+    .photo:focus-within { outline: 3px solid var(--mat-sys-primary); outline-offset: 2px; }
+    .hs-file { position: absolute; width: 1px; height: 1px; opacity: 0; overflow: hidden; }
+    .error { color: var(--mat-sys-error); }
+  `,
 })
 export default class SampleForm {
   protected readonly store = inject(CaptureStore);
   private readonly router = inject(Router);
   protected readonly types = SAMPLE_TYPES;
+  protected readonly typeLabels = SAMPLE_TYPE_LABELS;
+  protected readonly photoCount = photoCount;
   protected readonly photos = signal<Blob[]>([]);
   protected readonly errors = signal<string[]>([]);
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -50,14 +69,20 @@ export default class SampleForm {
     wetMassKg: [null as number | null],
     moisturePct: [null as number | null],
     position: [''],
+    duplicateOfId: [null as string | null],
+    standardId: [''],
   });
+  protected readonly sampleType = toSignal(this.form.controls.sampleType.valueChanges, { initialValue: this.form.controls.sampleType.value });
+  private readonly pileId = toSignal(this.form.controls.pileId.valueChanges, { initialValue: '' });
+  /** Samples of the chosen pile, for "Duplicate of". */
+  protected readonly samplesOfPile = computed(() => this.store.samples().filter((sample) => sample.pileId === this.pileId()));
+  protected readonly accuracyM = signal<number | null>(null);
   private location: SampleData['location'] = null;
-  private accuracyM: number | null = null;
 
   constructor() {
     navigator.geolocation?.getCurrentPosition((position) => {
       this.location = { type: 'Point', coordinates: [position.coords.longitude, position.coords.latitude] };
-      this.accuracyM = position.coords.accuracy;
+      this.accuracyM.set(Math.round(position.coords.accuracy));
     }, () => undefined, { enableHighAccuracy: true, timeout: 10_000 });
   }
 
@@ -78,7 +103,8 @@ export default class SampleForm {
     }
     const sample: SampleData = {
       id: crypto.randomUUID(), pileId: pile.id, code: await this.store.nextCode(site.code, 'sample'), sampleType: value.sampleType,
-      duplicateOfId: null, standardId: null, location: this.location, gpsAccuracyM: this.accuracyM, wetMassKg: value.wetMassKg,
+      duplicateOfId: value.sampleType === 'duplicate' ? value.duplicateOfId : null,
+      standardId: value.sampleType === 'standard' ? value.standardId.trim() || null : null, location: this.location, gpsAccuracyM: this.accuracyM(), wetMassKg: value.wetMassKg,
       moisturePct: value.moisturePct, increments: value.increments, position: value.position, collectedAt: new Date().toISOString(),
       collectorId: this.store.userId(), deviceId: await this.store.deviceId(),
     };
