@@ -31,7 +31,8 @@ export async function saveRecord<E extends SyncEntity>(
 
 /** The outbox port over Dexie. */
 export class DeviceOutbox implements OutboxPort {
-  constructor(private readonly db: HeapsightDb) {}
+  /** `deviceId` names this device on the conflicts it keeps. */
+  constructor(private readonly db: HeapsightDb, private readonly deviceId = '') {}
 
   async pendingEntries(): Promise<OutboxEntry[]> {
     const entries = await this.db.outbox.orderBy('queuedAt').toArray();
@@ -51,7 +52,7 @@ export class DeviceOutbox implements OutboxPort {
 
   async applyResults(sent: readonly OutboxEntry[], results: readonly MutationResult[]): Promise<void> {
     const db = this.db;
-    await db.transaction('rw', [db.outbox, db.piles, db.samples, db.panTests, db.photos], async () => {
+    await db.transaction('rw', [db.outbox, db.piles, db.samples, db.panTests, db.photos, db.conflicts], async () => {
       for (const result of results) {
         const entry = sent.find((candidate) => candidate.mutationId === result.mutationId);
         if (!entry) {
@@ -62,6 +63,14 @@ export class DeviceOutbox implements OutboxPort {
           continue;
         }
         await db.outbox.delete(entry.mutationId);
+        if (result.status === 'conflict' && result.conflictId) {
+          // Kept on the device too, so the Sync screen shows its own conflicts with no connection.
+          await db.conflicts.put({
+            id: result.conflictId, entity: entry.entity, recordId: entry.id, siteId: await this.siteOf(entry.entity, entry.data), deviceId: this.deviceId,
+            baseRevision: entry.baseRevision, serverRevision: result.revision ?? 0, deviceOp: entry.op, deviceData: entry.data, serverData: null,
+            status: 'open', createdAt: entry.queuedAt,
+          });
+        }
         const table = tableOf(db, entry.entity);
         const others = await db.outbox.where('[entity+id]').equals([entry.entity, entry.id]).toArray();
         if (result.status !== 'conflict' && result.revision !== null) {
@@ -75,6 +84,17 @@ export class DeviceOutbox implements OutboxPort {
         }
       }
     });
+  }
+
+  /** The site a record belongs to, from its own data (a pile) or its parents on this device. */
+  private async siteOf(entity: SyncEntity, data: unknown): Promise<string> {
+    const record = (data ?? {}) as { siteId?: string; pileId?: string; sampleId?: string; ownerEntity?: 'pile' | 'sample'; ownerId?: string };
+    if (entity === 'pile') {
+      return record.siteId ?? '';
+    }
+    const sampleId = entity === 'panTest' ? record.sampleId : entity === 'photo' && record.ownerEntity === 'sample' ? record.ownerId : undefined;
+    const pileId = entity === 'sample' ? record.pileId : entity === 'photo' && record.ownerEntity === 'pile' ? record.ownerId : (await this.db.samples.get(sampleId ?? ''))?.pileId;
+    return (await this.db.piles.get(pileId ?? ''))?.siteId ?? '';
   }
 
   async pendingPhotoUploads(): Promise<PendingPhotoUpload[]> {

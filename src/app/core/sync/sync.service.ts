@@ -82,7 +82,8 @@ export class SyncService {
       this.retryTimer = null;
     }
     await this.deviceNumber();
-    const engine = new SyncEngine(new DeviceOutbox(this.db), this.transport(), await this.deviceId(), (progress) => this.progress.set(progress));
+    const deviceId = await this.deviceId();
+    const engine = new SyncEngine(new DeviceOutbox(this.db, deviceId), this.transport(), deviceId, (progress) => this.progress.set(progress));
     const result = await engine.run();
     if (result.status === 'idle') {
       this.failures = 0;
