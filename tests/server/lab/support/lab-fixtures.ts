@@ -40,7 +40,7 @@ export async function makeSamples(app: Express, token: string, specs: readonly S
     mutationId: randomUUID(), entity: 'pile', id: pileId, op: 'upsert', baseRevision: null,
     data: { id: pileId, siteId: site.id, code: pileCode, material: 'sluice-tailings', footprint: null, heightM: 2, shapeModel: 'cone', angleOfReposeDeg: 35, bulkDensityTPerM3: null, moisturePct: 5, spotHeights: null, sackCount: null, sackMassKg: null, hazards: [], notes: 'lab test pile' },
   }];
-  const ids = specs.map(() => randomUUID());
+  const ids: string[] = specs.map(() => randomUUID());
   const codes = specs.map(() => {
     codeCounter += 1;
     return `${site.code}-${DEVICE}-${String(codeCounter).padStart(4, '0')}`;
