@@ -23,10 +23,14 @@ export async function resizePhoto(file: Blob): Promise<ResizedPhoto> {
   }
 }
 
+/** The size a picture is drawn at so its long side is at most `longSide`, keeping its shape; never enlarged. */
+export function fitLongSide(width: number, height: number, longSide: number): { width: number; height: number } {
+  const scale = Math.min(1, longSide / Math.max(width, height));
+  return { width: Math.max(1, Math.round(width * scale)), height: Math.max(1, Math.round(height * scale)) };
+}
+
 async function drawJpeg(bitmap: ImageBitmap, longSide: number, quality: number): Promise<Blob> {
-  const scale = Math.min(1, longSide / Math.max(bitmap.width, bitmap.height));
-  const width = Math.max(1, Math.round(bitmap.width * scale));
-  const height = Math.max(1, Math.round(bitmap.height * scale));
+  const { width, height } = fitLongSide(bitmap.width, bitmap.height, longSide);
   const canvas = document.createElement('canvas');
   canvas.width = width;
   canvas.height = height;
