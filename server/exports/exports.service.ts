@@ -33,7 +33,7 @@ export async function samplesCsv(user: CurrentUser, siteKey: string): Promise<{ 
   const samples = await Sample.findAll({ where: { siteId: site.id, deletedAt: null }, order: [['code', 'ASC']] });
   const piles = await Pile.findAll({ where: { siteId: site.id } });
   const calibration = await calibrationForSite(site.id);
-  const grades = new Map((await Promise.all(piles.map((pile) => sampleGradesForPile(pile.id)))).flat().map((grade) => [grade.sampleId, grade]));
+  const grades = new Map((await Promise.all(piles.map((pile) => sampleGradesForPile(pile.id, calibration)))).flat().map((grade) => [grade.sampleId, grade]));
   const assays = await AssayResult.findAll({ where: { sampleId: { [Op.in]: samples.map((sample) => sample.id) }, supersededAt: null }, order: [['createdAt', 'ASC']] });
   const items = await LabBatchSample.findAll({ where: { id: { [Op.in]: assays.map((assay) => assay.batchSampleId) } } });
   const batches = await LabBatch.findAll({ where: { siteId: site.id } });

@@ -23,7 +23,7 @@ export async function sampleGradesForSitePiles(siteId: string, pileIds: readonly
   const calibration = await calibrationForSite(siteId);
   const byPile = new Map<string, PileSampleGrades>();
   for (const pileId of pileIds) {
-    const entries = await sampleGradesForPile(pileId);
+    const entries = await sampleGradesForPile(pileId, calibration);
     const graded = entries.filter((entry) => entry.gradeGpt !== null);
     byPile.set(pileId, {
       samples: graded.map((entry) => ({ sampleId: entry.sampleId, sampleType: entry.sampleType, assayGpt: entry.assayGpt, panGpt: entry.panGpt })),
