@@ -20,10 +20,11 @@ export interface BenchServer {
 
 /**
  * The real built server (dist/node) in its own process on a free port with a fresh data folder
- * and the demo scenario, as `npm start` runs it.
+ * and the demo scenario, as `npm start` runs it. With `givenDataDir` (e.g. one holding the synthetic
+ * site) it uses that folder instead, and removes it on stop.
  */
-export async function startHeapsight(env: Record<string, string> = {}): Promise<BenchServer> {
-  const dataDir = mkdtempSync(join(tmpdir(), 'heapsight-bench-'));
+export async function startHeapsight(env: Record<string, string> = {}, givenDataDir?: string): Promise<BenchServer> {
+  const dataDir = givenDataDir ?? mkdtempSync(join(tmpdir(), 'heapsight-bench-'));
   const child = spawn(process.execPath, [join(ROOT, 'dist/node/server/main.js')], {
     cwd: ROOT,
     env: { ...process.env, NODE_ENV: 'production', DEMO: '1', PORT: '0', DATA_DIR: dataDir, LOG_LEVEL: 'warn', ...env },

@@ -1,0 +1,82 @@
+/**
+ * The API under load: autocannon on loopback against the built server (its own process, SQLite,
+ * as `npm start` runs it) holding the seeded synthetic site (full: 50 piles, 20,000 samples,
+ * 2,000 photos). Each read is measured beside `GET /api/health` on the same server in the same run
+ * (helmet, logging and JSON like every route, plus one `SELECT 1`), so the ratio is what our route
+ * costs over the framework's floor. Goal (issue 9): p99 < 50 ms at 50 connections for paged reads.
+ * Every run is bounded in time (seconds per route); nothing here asserts a timing.
+ */
+import autocannon from 'autocannon';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { SYNTHETIC_SITE, SYNTHETIC_SIZES, seedSyntheticDataDir } from '../scripts/make-synthetic-site';
+import { BENCH_SIZE, reportFigure } from './report';
+import { startHeapsight } from './support/servers';
+
+const isFull = BENCH_SIZE === 'full';
+const size = SYNTHETIC_SIZES[BENCH_SIZE];
+const CONNECTIONS = 50;
+const DURATION_S = isFull ? 10 : 2;
+const PAGE = 50;
+
+async function signIn(url: string, email: string): Promise<string> {
+  const response = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: 'heapsight-demo' }) });
+  if (!response.ok) throw new Error(`sign-in of ${email} failed: ${response.status}`);
+  return ((await response.json()) as { accessToken: string }).accessToken;
+}
+
+/** Paths spread over the whole list so each request reads a different page. */
+function spread(count: number, make: (index: number) => string): { path: string }[] {
+  return Array.from({ length: count }, (_, index) => ({ path: make(index) }));
+}
+
+async function main(): Promise<void> {
+  const dataDir = mkdtempSync(join(tmpdir(), 'heapsight-bench-api-'));
+  const seeded = await seedSyntheticDataDir(dataDir, size);
+  process.stdout.write(`synthetic site: ${size.piles} piles, ${size.samples} samples, ${size.photos} photos (${seeded.applied} records) in ${(seeded.ms / 1000).toFixed(1)} s\n`);
+  const server = await startHeapsight({}, dataDir);
+  try {
+    const geologist = await signIn(server.url, 'geologist@demo.heapsight.test');
+    const manager = await signIn(server.url, 'manager@demo.heapsight.test');
+    const site = SYNTHETIC_SITE.id;
+    const pages = Math.floor(size.samples / PAGE);
+    const load = async (token: string, requests: { path: string }[]) => {
+      // Warm the route (first query compiles statements and fills the page cache) before measuring.
+      for (const request of requests.slice(0, 3)) {
+        const response = await fetch(`${server.url}${request.path}`, { headers: { authorization: `Bearer ${token}` } });
+        if (!response.ok) throw new Error(`${request.path}: ${response.status} ${(await response.text()).slice(0, 200)}`);
+      }
+      const result = await autocannon({ url: server.url, connections: CONNECTIONS, duration: DURATION_S, headers: { authorization: `Bearer ${token}` }, requests });
+      if (result.errors + result.timeouts + result.non2xx > 0) {
+        throw new Error(`${requests[0].path}: ${result.errors} errors, ${result.timeouts} timeouts, ${result.non2xx} non-2xx`);
+      }
+      return result;
+    };
+    const baseline = await load(geologist, [{ path: '/api/health' }]);
+    const routes = [
+      { name: `GET /api/samples paged (${PAGE} of ${size.samples.toLocaleString('en')}, pages all over)`, token: geologist, requests: spread(40, (index) => `/api/samples?siteId=${site}&limit=${PAGE}&offset=${((index * 37) % pages) * PAGE}`), isPagedRead: true },
+      { name: 'GET /api/samples filtered (type + code prefix + date range), paged', token: geologist, requests: spread(40, (index) => `/api/samples?siteId=${site}&sampleType=routine&codePrefix=SY-&collectedFrom=2025-01-06T00:00:00Z&collectedTo=2030-01-01T00:00:00Z&limit=${PAGE}&offset=${((index * 37) % pages) * PAGE}`), isPagedRead: true },
+      { name: 'GET /api/sync/pull (500 changes a page, cursors all over)', token: geologist, requests: spread(20, (index) => `/api/sync/pull?since=${Math.floor((index * seeded.applied) / 20)}&limit=500`), isPagedRead: true },
+      { name: `GET /api/shortlist (${size.piles} piles ranked from ${size.samples.toLocaleString('en')} samples)`, token: manager, requests: [{ path: `/api/shortlist?site=${site}` }], isPagedRead: false },
+    ];
+    for (const route of routes) {
+      const result = await load(route.token, route.requests);
+      process.stdout.write(`${route.name}: ${result.requests.average.toFixed(0)} req/s, p50 ${result.latency.p50} ms, p99 ${result.latency.p99} ms (health: ${baseline.requests.average.toFixed(0)} req/s, p99 ${baseline.latency.p99} ms)\n`);
+      const common = { group: 'api', baselineName: 'GET /api/health, same server', note: `${CONNECTIONS} connections, ${DURATION_S} s, loopback` };
+      reportFigure({ ...common, name: `${route.name}: requests/s`, value: result.requests.average, unit: 'req/s', baselineValue: baseline.requests.average, higherIsBetter: true });
+      reportFigure({ ...common, name: `${route.name}: p50 latency`, value: Math.max(result.latency.p50, 0.01), unit: 'ms', baselineValue: Math.max(baseline.latency.p50, 0.01), higherIsBetter: false });
+      reportFigure({
+        ...common, name: `${route.name}: p99 latency`, value: result.latency.p99, unit: 'ms', baselineValue: baseline.latency.p99, higherIsBetter: false,
+        ...(route.isPagedRead ? { goal: `< 50 ms at ${CONNECTIONS} connections (full size)` } : {}),
+      });
+    }
+  } finally {
+    await server.stop();
+  }
+}
+
+main().catch((error: unknown) => {
+  process.stderr.write(`${error instanceof Error ? error.stack : String(error)}\n`);
+  process.exit(1);
+});
