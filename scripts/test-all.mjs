@@ -54,6 +54,7 @@ if (postgresBin) {
 }
 
 step('Production build of the app (budgets enforced)', bin('ng'), ['build']);
+step('Initial bundle gzip size (180 kB budget)', process.execPath, [join(root, 'scripts/check-bundle-size.mjs')]);
 step('Build of the server', bin('tsc'), ['-p', 'tsconfig.build-server.json']);
 const e2e = spawnSync(process.execPath, [join(root, 'e2e/run.mjs')], { cwd: root, env, encoding: 'utf8', stdio: ['inherit', 'pipe', 'inherit'] });
 process.stdout.write(e2e.stdout);

@@ -17,6 +17,8 @@ declare module 'autocannon' {
     readonly url: string;
     readonly connections?: number;
     readonly duration?: number;
+    /** Seconds before a request counts as timed out. */
+    readonly timeout?: number;
     readonly headers?: Record<string, string>;
     readonly requests?: readonly { readonly method?: string; readonly path: string }[];
   }
