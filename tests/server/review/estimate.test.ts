@@ -51,7 +51,7 @@ function panTestRecord(sampleId: string, goldMassMg: number) {
 }
 
 /** A flat-topped pile on a 20 m square with four pan-tested routine samples and one blank. */
-async function seedPile(siteId = JR, siteCode = 'JR') {
+async function seedPile(siteId: string = JR, siteCode = 'JR') {
   const pile = pileRecord(siteId, siteCode);
   const goldMg = [8, 16, 24, 40];
   const samples = goldMg.map(() => sampleRecord(pile.id, siteCode));
