@@ -29,6 +29,8 @@ module.exports = {
         ],
       },
       transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$)'],
+      // Client code that runs the engine (an estimate made on the device) loads it the same way.
+      moduleNameMapper: esmOnlyPackages,
     },
     {
       displayName: 'shared',

@@ -1,4 +1,4 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { EngineError, PileEstimate } from '../../../../shared/engine';
@@ -6,6 +6,12 @@ import type { PhotoData, PileData, SampleData } from '../../../../shared/sync/pr
 import { heapsightDb } from '../../core/db/heapsight-db';
 import { saveRecord } from '../../core/sync/device-outbox';
 import { SyncService } from '../../core/sync/sync.service';
+import { estimateOnDevice } from './device-estimate';
+
+/** True when a request failed for want of a connection (no answer, or the service worker's 504), not because the server refused. */
+export function isUnreachable(error: unknown, isOnline = typeof navigator === 'undefined' || navigator.onLine): boolean {
+  return !isOnline || (error instanceof HttpErrorResponse && (error.status === 0 || error.status === 504));
+}
 
 /** A pile as the server shows it, with where it stands in sync. */
 export type PileView = PileData & { readonly revision: number; readonly updatedAt: string };
@@ -63,6 +69,33 @@ export class PilesStore {
   /** A photo's thumbnail as an object URL (fetched with the sign-in). */
   async photoUrl(photoId: string): Promise<string> {
     return URL.createObjectURL(await firstValueFrom(this.http.get(`/api/photos/${photoId}?size=thumb`, { responseType: 'blob' })));
+  }
+
+  /** The pile as this device holds it (synced or captured here), or null; read only. */
+  async heldPile(id: string): Promise<PileView | null> {
+    const held = await heapsightDb().piles.get(id);
+    return held && !held.deletedAt ? { ...held, revision: held.revision ?? 0, updatedAt: '' } : null;
+  }
+
+  /** The live samples of a pile this device holds; read only. */
+  async heldSamples(pileId: string): Promise<(SampleData & { revision: number })[]> {
+    const held = await heapsightDb().samples.where('pileId').equals(pileId).toArray();
+    return held.filter((sample) => !sample.deletedAt).map((sample) => ({ ...sample, revision: sample.revision ?? 0 })).sort((a, b) => a.code.localeCompare(b.code));
+  }
+
+  /**
+   * The estimate worked out on this device by the engine from the pile, samples and pan tests it
+   * holds (read only), for when the server cannot be reached; null when the device lacks the pile.
+   */
+  async estimateOnThisDevice(pileId: string): Promise<ReturnType<typeof estimateOnDevice> | null> {
+    const db = heapsightDb();
+    const pile = await db.piles.get(pileId);
+    if (!pile || pile.deletedAt) {
+      return null;
+    }
+    const samples = await db.samples.where('pileId').equals(pileId).toArray();
+    const panTests = samples.length > 0 ? await db.panTests.where('sampleId').anyOf(samples.map((sample) => sample.id)).toArray() : [];
+    return estimateOnDevice(pile, samples, panTests);
   }
 
   /**

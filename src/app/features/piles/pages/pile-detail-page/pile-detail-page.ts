@@ -11,7 +11,7 @@ import type { SampleData } from '../../../../../../shared/sync/protocol';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 import { FootprintPreview } from '../../components/footprint-preview';
-import { PilesStore, type PileEstimateView, type PileView } from '../../piles.store';
+import { PilesStore, isUnreachable, type PileEstimateView, type PileView } from '../../piles.store';
 
 /** One pile: its footprint, photos, samples, the engine's estimate with method and warnings, and its cautions. */
 @Component({
@@ -29,6 +29,10 @@ export default class PileDetailPage implements OnInit, OnDestroy {
   protected readonly pile = signal<PileView | null>(null);
   protected readonly estimate = signal<PileEstimateView | null>(null);
   protected readonly estimateProblem = signal<string | null>(null);
+  /** True when the estimate shown was worked out on this device because the server could not be reached. */
+  protected readonly isEstimateFromDevice = signal(false);
+  /** True when the pile record shown is this device's copy (offline). */
+  protected readonly isPileFromDevice = signal(false);
   protected readonly samples = signal<readonly (SampleData & { revision: number })[]>([]);
   protected readonly photoUrls = signal<readonly string[]>([]);
   protected readonly problem = signal<string | null>(null);
@@ -40,14 +44,19 @@ export default class PileDetailPage implements OnInit, OnDestroy {
   protected edit = { heightM: null as number | null, angleOfReposeDeg: null as number | null, bulkDensityTPerM3: null as number | null, moisturePct: null as number | null, notes: '' };
 
   async ngOnInit(): Promise<void> {
+    let pile: PileView | null;
     try {
-      const pile = await this.store.pile(this.id());
-      this.pile.set(pile);
-      this.edit = { heightM: pile.heightM, angleOfReposeDeg: pile.angleOfReposeDeg, bulkDensityTPerM3: pile.bulkDensityTPerM3, moisturePct: pile.moisturePct, notes: pile.notes };
-    } catch {
-      this.problem.set('This pile could not be loaded (it may belong to a site you are not a member of, or you are offline).');
+      pile = await this.store.pile(this.id());
+    } catch (error) {
+      pile = isUnreachable(error) ? await this.store.heldPile(this.id()) : null;
+      this.isPileFromDevice.set(pile !== null);
+    }
+    if (!pile) {
+      this.problem.set('This pile could not be loaded (it may belong to a site you are not a member of, or you are offline and this device does not hold it).');
       return;
     }
+    this.pile.set(pile);
+    this.edit = { heightM: pile.heightM, angleOfReposeDeg: pile.angleOfReposeDeg, bulkDensityTPerM3: pile.bulkDensityTPerM3, moisturePct: pile.moisturePct, notes: pile.notes };
     await Promise.all([this.loadEstimate(), this.loadSamples(), this.loadPhotos()]);
   }
 
@@ -66,13 +75,35 @@ export default class PileDetailPage implements OnInit, OnDestroy {
     try {
       this.estimate.set(await this.store.estimate(this.id()));
     } catch (error) {
+      if (isUnreachable(error) && (await this.estimateFromDevice())) {
+        return;
+      }
       const details = (error as { error?: { error?: { details?: { message: string }[] } } }).error?.error?.details ?? [];
       this.estimateProblem.set(details.length > 0 ? details.map((detail) => detail.message).join('; ') : 'The estimate could not be loaded.');
     }
   }
 
+  /** Offline: the same engine on the pile, samples and pan tests this device holds. False when it holds too little. */
+  private async estimateFromDevice(): Promise<boolean> {
+    const result = await this.store.estimateOnThisDevice(this.id());
+    if (!result) {
+      return false;
+    }
+    if (!result.ok) {
+      this.estimateProblem.set(`offline, and the samples this device holds cannot be estimated: ${result.errors.map((error) => error.message).join('; ')}`);
+      return true;
+    }
+    this.estimate.set({ ...result.value.estimate, sampleGrades: result.value.sampleGrades });
+    this.isEstimateFromDevice.set(true);
+    return true;
+  }
+
   private async loadSamples(): Promise<void> {
-    this.samples.set((await this.store.samples(this.id()).catch(() => ({ items: [] }))).items);
+    try {
+      this.samples.set((await this.store.samples(this.id())).items);
+    } catch (error) {
+      this.samples.set(isUnreachable(error) ? await this.store.heldSamples(this.id()) : []);
+    }
   }
 
   private async loadPhotos(): Promise<void> {

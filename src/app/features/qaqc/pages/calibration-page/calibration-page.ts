@@ -7,6 +7,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
+import { openingSite, rememberSiteId, rememberedSiteId } from '../../../../core/site-choice/remembered-site';
 import { ChartCanvas } from '../../components/chart/chart-canvas';
 import { calibrationChart } from '../../qaqc-charts';
 import { QaqcStore, type SiteCalibration } from '../../qaqc.store';
@@ -20,7 +21,7 @@ import { QaqcStore, type SiteCalibration } from '../../qaqc.store';
       <h1><mat-icon aria-hidden="true">show_chart</mat-icon> Calibration</h1>
       <mat-form-field>
         <mat-label>Site</mat-label>
-        <mat-select [ngModel]="siteId()" (ngModelChange)="load($event)" name="site">
+        <mat-select [ngModel]="siteId()" (ngModelChange)="choose($event)" name="site">
           @for (site of sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} · {{ site.name }}</mat-option> }
         </mat-select>
       </mat-form-field>
@@ -54,14 +55,28 @@ export default class CalibrationPage implements OnInit {
   protected readonly problem = signal<string | null>(null);
   protected readonly chart = computed(() => calibrationChart(this.data() ?? { siteId: '', isApplied: false, fit: null, refusals: [], points: [] }));
 
+  /** Opens on the site last chosen here on this device, else the first of the user's sites with data. */
   async ngOnInit(): Promise<void> {
-    const first = this.sites()[0];
-    if (first) await this.load(first.id);
+    const opening = await openingSite(this.sites().map((site) => site.id), rememberedSiteId('calibration'), (siteId) => this.store.calibration(siteId), (data) => data.points.length > 0);
+    if (!opening) return;
+    if (opening.data) {
+      this.siteId.set(opening.siteId);
+      this.data.set(opening.data);
+    } else {
+      await this.load(opening.siteId);
+    }
   }
 
-  protected async load(siteId: string): Promise<void> {
+  /** The site picker: loads the site and remembers it on this device. */
+  protected async choose(siteId: string): Promise<void> {
+    rememberSiteId('calibration', siteId);
+    await this.load(siteId);
+  }
+
+  private async load(siteId: string): Promise<void> {
     this.siteId.set(siteId);
     this.problem.set(null);
+    this.data.set(null);
     try {
       this.data.set(await this.store.calibration(siteId));
     } catch (error) {

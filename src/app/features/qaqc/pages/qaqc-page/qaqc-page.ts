@@ -7,6 +7,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
+import { openingSite, rememberSiteId, rememberedSiteId } from '../../../../core/site-choice/remembered-site';
 import { ChartCanvas } from '../../components/chart/chart-canvas';
 import { blankChart, duplicateChart, standardChart } from '../../qaqc-charts';
 import { QaqcStore, VERDICT_LABELS, type SiteQaqc } from '../../qaqc.store';
@@ -21,7 +22,7 @@ import { QaqcStore, VERDICT_LABELS, type SiteQaqc } from '../../qaqc.store';
       <div class="row">
         <mat-form-field>
           <mat-label>Site</mat-label>
-          <mat-select [ngModel]="siteId()" (ngModelChange)="load($event)" name="site">
+          <mat-select [ngModel]="siteId()" (ngModelChange)="choose($event)" name="site">
             @for (site of sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} · {{ site.name }}</mat-option> }
           </mat-select>
         </mat-form-field>
@@ -75,14 +76,28 @@ export default class QaqcPage implements OnInit {
     });
   });
 
+  /** Opens on the site last chosen here on this device, else the first of the user's sites with data. */
   async ngOnInit(): Promise<void> {
-    const first = this.sites()[0];
-    if (first) await this.load(first.id);
+    const opening = await openingSite(this.sites().map((site) => site.id), rememberedSiteId('qaqc'), (siteId) => this.store.qaqc(siteId), (data) => data.batches.length > 0 || data.blanks.length > 0 || data.standards.length > 0 || data.duplicates.length > 0);
+    if (!opening) return;
+    if (opening.data) {
+      this.siteId.set(opening.siteId);
+      this.data.set(opening.data);
+    } else {
+      await this.load(opening.siteId);
+    }
   }
 
-  protected async load(siteId: string): Promise<void> {
+  /** The site picker: loads the site and remembers it on this device. */
+  protected async choose(siteId: string): Promise<void> {
+    rememberSiteId('qaqc', siteId);
+    await this.load(siteId);
+  }
+
+  private async load(siteId: string): Promise<void> {
     this.siteId.set(siteId);
     this.problem.set(null);
+    this.data.set(null);
     try {
       this.data.set(await this.store.qaqc(siteId));
     } catch (error) {
