@@ -12,6 +12,7 @@ import { requireSignInFor } from './accounts/route-table';
 import type { Database } from './db/database';
 import { healthRoutes } from './health/health.routes';
 import { labLoopRoutes } from './lab/lab.component';
+import { labelRoutes } from './labels/labels.component';
 import type { Config } from './lib/config';
 import { apiNotFound, errorMiddleware } from './lib/errors';
 import { createMailService } from './mail/mail.service';
@@ -71,6 +72,7 @@ export function createApp(context: AppContext): Express {
   signedIn.use(captureSyncRoutes(createCaptureSyncServices(context), authenticate));
   signedIn.use(trialsEconomicsShortlistRoutes({ database, mail }));
   signedIn.use(createReviewRoutes(context));
+  signedIn.use(labelRoutes(database));
   api.use(requireSignInFor(signedIn));
   api.use(signedIn);
   api.use(apiNotFound);

@@ -11,6 +11,7 @@ import { initPileModel } from '../capture/pile.model';
 import { initSampleModel } from '../capture/sample.model';
 import { initPhotoModel } from '../photos/photo.model';
 import { initSiteImageModel } from '../review/site-image.model';
+import { initLabelRangeModel } from '../labels/label-range.model';
 import { initLabModels } from '../lab/lab.models';
 import { initOrganizationModel } from '../sites/organization.model';
 import { initSiteModel } from '../sites/site.model';
@@ -36,4 +37,5 @@ export function initModels(sequelize: Sequelize): void {
   initEconomicsModels(sequelize);
   initSiteImageModel(sequelize);
   initLabModels(sequelize);
+  initLabelRangeModel(sequelize);
 }

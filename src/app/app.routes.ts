@@ -11,6 +11,7 @@ export const routes: Routes = [
   { path: 'piles', canActivate: [signedInGuard(['sampler', 'geologist', 'manager', 'admin'])], loadChildren: () => import('./features/piles/piles.routes') },
   { path: 'samples', canActivate: [signedInGuard(['sampler', 'geologist', 'manager', 'admin'])], loadChildren: () => import('./features/samples/samples.routes') },
   { path: 'sample-mass', canActivate: [signedInGuard(['sampler', 'geologist', 'manager', 'admin'])], loadChildren: () => import('./features/sample-mass/sample-mass.routes') },
+  { path: 'labels', canActivate: [signedInGuard(['sampler', 'geologist'])], loadChildren: () => import('./features/labels/labels.routes') },
   { path: 'lab-batches', canActivate: [signedInGuard(['geologist', 'lab'])], loadChildren: () => import('./features/lab-batches/lab-batches.routes') },
   { path: 'qaqc', canActivate: [signedInGuard(['geologist'])], loadChildren: () => import('./features/qaqc/qaqc.routes') },
   { path: 'trials', canActivate: [signedInGuard(['manager', 'geologist'])], loadChildren: () => import('./features/trials/trials.routes') },

@@ -6,6 +6,7 @@ import { trialsEconomics } from './0005-trials-economics';
 import { reviewDesk } from './0004-review-desk';
 import { labLoop } from './0006-lab-loop';
 import { readIndexes } from './0007-read-indexes';
+import { labelRanges } from './0008-label-ranges';
 
 /** Every migration, in the order it runs. Append; never edit one that has shipped. */
-export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk, trialsEconomics, readIndexes];
+export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk, trialsEconomics, readIndexes, labelRanges];

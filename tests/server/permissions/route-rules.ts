@@ -262,6 +262,12 @@ export const ROUTE_RULES: readonly RouteRule[] = [
     request: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.JR, to: ['matrix@example.test'] } }),
     outOfScope: (context) => ({ url: '/api/shortlist/report/send', body: { site: context.sites.outside, to: ['matrix@example.test'] } }),
   },
+  // ── sample labels ────────────────────────────────────────────────────────────────────────
+  {
+    route: 'GET /api/labels.pdf', allowed: CAPTURE,
+    request: (context) => ({ url: `/api/labels.pdf?site=${context.sites.JR}&count=3` }),
+    outOfScope: (context) => ({ url: `/api/labels.pdf?site=${context.sites.outside}&count=3` }),
+  },
   // ── lab loop: batches, results, QA/QC, calibration, exports (rules in tests/server/lab/support) ──
   ...LAB_ROUTE_RULES,
 ];

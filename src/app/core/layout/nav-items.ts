@@ -25,6 +25,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/piles', label: 'Piles', icon: 'landscape', roles: SITE_READERS },
   { path: '/samples', label: 'Samples', icon: 'science', roles: SITE_READERS },
   { path: '/sample-mass', label: 'Sample mass', icon: 'scale', roles: SITE_READERS },
+  { path: '/labels', label: 'Labels', icon: 'qr_code', roles: ['sampler', 'geologist'] },
   { path: '/lab-batches', label: 'Lab batches', icon: 'biotech', roles: ['geologist', 'lab'] },
   { path: '/qaqc', label: 'QA/QC', icon: 'rule', roles: ['geologist'] },
   { path: '/trials', label: 'Trials', icon: 'vibration', roles: ['manager', 'geologist'] },
