@@ -15,6 +15,7 @@ import { labLoopRoutes } from './lab/lab.component';
 import { labelRoutes } from './labels/labels.component';
 import type { Config } from './lib/config';
 import { apiNotFound, errorMiddleware } from './lib/errors';
+import { refuseInvalidUtf8 } from './lib/validate';
 import { createMailService } from './mail/mail.service';
 import { outboxRoutes } from './mail/outbox.routes';
 import { createReviewRoutes } from './review/review.component';
@@ -55,7 +56,7 @@ export function createApp(context: AppContext): Express {
 
   // Public routes: health and signing in.
   const api = express.Router();
-  api.use(express.json({ limit: JSON_BODY_LIMIT, strict: true }));
+  api.use(express.json({ limit: JSON_BODY_LIMIT, strict: true, verify: refuseInvalidUtf8 }));
   api.use(healthRoutes(database));
   api.use(authRoutes(auth, logger));
   api.use(clientConfigRoutes(config));

@@ -5,6 +5,7 @@ import { assertCan, can, readableSiteIds } from '../accounts/policy';
 import type { Database } from '../db/database';
 import { AppError } from '../lib/errors';
 import type { ImageJobs } from './image-jobs';
+import { assertDecodableSize } from './image-size';
 import { Photo, type StoredSize } from './photo.model';
 import type { PhotoStore, StoredPhotoFile } from './photo-store';
 import { Op } from 'sequelize';
@@ -68,6 +69,7 @@ export class PhotosService {
     if (!PHOTO_CONTENT_TYPES.includes(contentType) || !SIGNATURES[contentType](file.buffer)) {
       throw new AppError('unsupported_media_type', 'The file is not a JPEG, PNG or WebP image', { accepted: PHOTO_CONTENT_TYPES });
     }
+    assertDecodableSize(file.buffer, contentType);
     try {
       await this.jobs.decodeThenThumbnail(file.buffer, contentType, async (thumbnail) => {
         await this.store.put(photoId, 'thumb', thumbnail, 'image/jpeg');

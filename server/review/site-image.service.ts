@@ -4,6 +4,7 @@ import { assertCan, can } from '../accounts/policy';
 import type { Database } from '../db/database';
 import { AppError } from '../lib/errors';
 import type { ImageJobs } from '../photos/image-jobs';
+import { assertDecodableSize } from '../photos/image-size';
 import type { PhotoStore, StoredPhotoFile } from '../photos/photo-store';
 import type { UploadedFile } from '../photos/photos.service';
 import { siteImageOf, siteSummary } from './review.repository';
@@ -74,6 +75,7 @@ export class SiteImageService {
     if (!(PHOTO_CONTENT_TYPES as readonly string[]).includes(file.mimetype) || !SIGNATURES[file.mimetype]?.(file.buffer)) {
       throw new AppError('unsupported_media_type', 'The file is not a JPEG, PNG or WebP image', { accepted: PHOTO_CONTENT_TYPES });
     }
+    assertDecodableSize(file.buffer, file.mimetype);
     let decoded: { width: number; height: number };
     try {
       decoded = await this.jobs.decodeThenThumbnail(file.buffer, file.mimetype, (thumbnail) => this.store.put(siteId, 'thumb', thumbnail, 'image/jpeg'));

@@ -19,6 +19,7 @@
  *   duplicate, conflict, rejected), so one bad record never holds back the rest.
  */
 import { z } from 'zod';
+import { parseFootprint } from '../engine/footprint';
 import { HAZARDS } from '../safety/cautions';
 
 /** The record kinds that sync. */
@@ -61,7 +62,9 @@ export const pointSchema = z.object({ type: z.literal('Point'), coordinates: pos
 
 /**
  * A GeoJSON Polygon in WGS84 lon/lat: one closed outer ring of at least three distinct corners
- * (holes are not used for piles). Self-intersection is the engine's check, not the schema's.
+ * (holes are not used for piles). The engine's footprint check runs here too, so a ring that
+ * crosses itself or encloses no area is refused at the edge, before it is stored and every volume
+ * estimate of the pile fails later. Either winding is taken (RFC 7946 §3.1.6 asks readers not to refuse).
  */
 export const polygonSchema = z
   .object({ type: z.literal('Polygon'), coordinates: z.array(z.array(position).min(4)).length(1) })
@@ -71,7 +74,13 @@ export const polygonSchema = z
     const first = ring[0];
     const last = ring[ring.length - 1];
     return first[0] === last[0] && first[1] === last[1];
-  }, 'The footprint ring must end where it starts');
+  }, 'The footprint ring must end where it starts')
+  .superRefine((polygon, context) => {
+    const parsed = parseFootprint(polygon);
+    if (!parsed.ok) {
+      parsed.errors.forEach((error) => context.addIssue({ code: 'custom', path: ['coordinates'], message: error.message }));
+    }
+  });
 
 /** A human code `SITE-DEVICE-SEQ` (samples) or `SITE-DEVICE-PSEQ` (piles), e.g. `JR-07-0042`. */
 const humanCode = z.string().regex(/^[A-Z0-9]{1,8}-\d{2,4}-P?\d{4,6}$/, 'A code looks like JR-07-0042');
