@@ -70,7 +70,8 @@ async function main(): Promise<void> {
   const server = await startHeapsight();
   const browser = await launchChromium();
   try {
-    const context = await browser.newContext({ viewport: PHONE, deviceScaleFactor: 1, hasTouch: true });
+    // The app's CSP forbids eval, which playwright's polling of a string predicate needs.
+    const context = await browser.newContext({ viewport: PHONE, deviceScaleFactor: 1, hasTouch: true, bypassCSP: true });
     await context.addInitScript(OBSERVE_FROM_START);
     const page = await context.newPage();
     await signIn(page, server.url, 'sampler@demo.heapsight.test');
