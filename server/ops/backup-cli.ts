@@ -16,7 +16,7 @@ async function main(): Promise<void> {
     const target = resolve(folder ?? join('backups', new Date().toISOString().replace(/[:.]/g, '-')));
     const manifest = await backupDataDir(config.dataDir, target);
     const rows = Object.values(manifest.tableRowCounts).reduce((sum, count) => sum + count, 0);
-    process.stdout.write(`Backup written to ${target} (${Object.keys(manifest.tableRowCounts).length} tables, ${rows} rows${manifest.hasPhotos ? ', photos' : ''})\n`);
+    process.stdout.write(`Backup written to ${target} (${Object.keys(manifest.tableRowCounts).length} tables, ${rows} rows${manifest.folders?.length ? `, ${manifest.folders.join(', ')}` : ''})\n`);
   } else if (command === 'restore' && folder) {
     const manifest = await restoreDataDir(resolve(folder), config.dataDir);
     process.stdout.write(`Restored the backup of ${manifest.createdAt} into ${config.dataDir}\n`);

@@ -3,10 +3,9 @@ import { join } from 'node:path';
 import sqlite3 from 'sqlite3';
 
 /**
- * Online backup and restore of an embedded deployment: the SQLite database and the photo store in
- * DATA_DIR. The database copy is made with `VACUUM INTO`, which reads one consistent snapshot while
- * the server keeps running and writing (SQLite ≥ 3.27); photos are immutable files named by UUID,
- * so copying them after the snapshot can only add photos, never miss one the snapshot refers to.
+ * Online backup and restore of an embedded deployment: the SQLite database and the file folders
+ * (photos, site images, mail) in DATA_DIR. The database copy is made with `VACUUM INTO`, which reads one consistent snapshot while
+ * the server keeps running and writing (SQLite ≥ 3.27).
  * PostgreSQL deployments back up with pg_dump and their object store's own tools instead.
  */
 
@@ -16,10 +15,17 @@ export interface BackupManifest {
   readonly databaseFile: string;
   readonly tableRowCounts: Record<string, number>;
   readonly hasPhotos: boolean;
+  /** The file folders of DATA_DIR copied beside the database (absent in backups made before they were listed). */
+  readonly folders?: readonly string[];
 }
 
 const DATABASE_FILE = 'heapsight.sqlite';
 const PHOTOS_FOLDER = 'photos';
+/**
+ * The folders of DATA_DIR that hold files the database refers to or that people need back:
+ * photos, the review desk's site images, and the local mail folder (the fake SMTP server's messages).
+ */
+export const DATA_FOLDERS = [PHOTOS_FOLDER, 'site-images', 'mail'] as const;
 
 /** Copies the live database and photo store of `dataDir` into `targetDir` (which must not exist). */
 export async function backupDataDir(dataDir: string, targetDir: string, now: Date = new Date()): Promise<BackupManifest> {
@@ -39,16 +45,18 @@ export async function backupDataDir(dataDir: string, targetDir: string, now: Dat
   } finally {
     await close(database);
   }
-  const photos = join(dataDir, PHOTOS_FOLDER);
-  const hasPhotos = existsSync(photos);
-  if (hasPhotos) {
-    cpSync(photos, join(targetDir, PHOTOS_FOLDER), { recursive: true });
+  // Files are written once under new names (photos, images by id; mail by time), so copying them
+  // after the snapshot can only add files, never miss one the snapshot refers to.
+  const folders = DATA_FOLDERS.filter((folder) => existsSync(join(dataDir, folder)));
+  for (const folder of folders) {
+    cpSync(join(dataDir, folder), join(targetDir, folder), { recursive: true });
   }
   const manifest: BackupManifest = {
     createdAt: now.toISOString(),
     databaseFile: DATABASE_FILE,
     tableRowCounts: await countRows(copy),
-    hasPhotos,
+    hasPhotos: folders.includes(PHOTOS_FOLDER),
+    folders,
   };
   writeFileSync(join(targetDir, 'backup.json'), `${JSON.stringify(manifest, null, 2)}\n`);
   return manifest;
@@ -71,9 +79,13 @@ export async function restoreDataDir(backupDir: string, dataDir: string): Promis
     rmSync(`${target}${suffix}`, { force: true });
   }
   cpSync(copy, target);
-  if (manifest.hasPhotos) {
-    rmSync(join(dataDir, PHOTOS_FOLDER), { recursive: true, force: true });
-    cpSync(join(backupDir, PHOTOS_FOLDER), join(dataDir, PHOTOS_FOLDER), { recursive: true });
+  const folders = manifest.folders ?? (manifest.hasPhotos ? [PHOTOS_FOLDER] : []);
+  for (const folder of folders) {
+    if (!(DATA_FOLDERS as readonly string[]).includes(folder)) {
+      throw new Error(`The backup lists an unknown folder: ${folder}`);
+    }
+    rmSync(join(dataDir, folder), { recursive: true, force: true });
+    cpSync(join(backupDir, folder), join(dataDir, folder), { recursive: true });
   }
   return manifest;
 }

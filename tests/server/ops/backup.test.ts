@@ -36,9 +36,13 @@ describeOnSqlite('npm run backup / npm run restore', () => {
 
   afterAll(() => testApp.close());
 
-  it('restores a backup taken while the server runs to the same rows in every table, with the photos', async () => {
+  it('restores a backup taken while the server runs to the same rows in every table, with the photos, site images and mail', async () => {
     mkdirSync(join(testApp.dataDir, 'photos'), { recursive: true });
     writeFileSync(join(testApp.dataDir, 'photos', 'a-photo.jpg'), Buffer.from([0xff, 0xd8, 0xff, 0xd9]));
+    mkdirSync(join(testApp.dataDir, 'site-images', 'a-site'), { recursive: true });
+    writeFileSync(join(testApp.dataDir, 'site-images', 'a-site', 'full'), Buffer.from([0x89, 0x50, 0x4e, 0x47]));
+    mkdirSync(join(testApp.dataDir, 'mail'), { recursive: true });
+    writeFileSync(join(testApp.dataDir, 'mail', 'a-message.eml'), 'Subject: Lab batch\r\n\r\nattached');
     const backupDir = join(mkdtempSync(join(tmpdir(), 'heapsight-backup-')), 'copy');
 
     const manifest = await backupDataDir(testApp.dataDir, backupDir);
@@ -51,6 +55,9 @@ describeOnSqlite('npm run backup / npm run restore', () => {
     expect(restored).toEqual(live);
     expect(manifest.tableRowCounts['users']).toBe(5);
     expect(readdirSync(join(restoredDir, 'photos'))).toEqual(['a-photo.jpg']);
+    expect(readdirSync(join(restoredDir, 'site-images', 'a-site'))).toEqual(['full']);
+    expect(readdirSync(join(restoredDir, 'mail'))).toEqual(['a-message.eml']);
+    expect(manifest.folders).toEqual(['photos', 'site-images', 'mail']);
   });
 
   it('takes a consistent snapshot while writes keep arriving', async () => {
