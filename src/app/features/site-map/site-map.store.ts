@@ -1,8 +1,9 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { PileEstimate } from '../../../../shared/engine';
 import type { PileData, SampleData } from '../../../../shared/sync/protocol';
+import { toApiProblem } from '../../core/http/api-error';
 
 /** A pile on the map: its record and the engine's estimate (null when it cannot be estimated yet). */
 export interface MapPile {
@@ -30,6 +31,32 @@ export interface SiteReview {
   readonly samples: readonly MapSample[];
 }
 
+/** A pile's line of `GET /api/shortlist?site=…` as the map uses it: the engine's net value and rank, or why it has none. */
+export interface MapShortlistRow {
+  readonly pileId: string;
+  readonly code: string;
+  readonly isRankable: boolean;
+  readonly thinDataReasons: readonly string[];
+  readonly netValue: number | null;
+  readonly conservativeNetValue: number | null;
+  readonly rank: number | null;
+}
+
+/** The part of the shortlist the map shades by. */
+export interface MapShortlist {
+  readonly site: { readonly id: string };
+  readonly parameters: { readonly currency: string };
+  readonly rows: readonly MapShortlistRow[];
+}
+
+/** The site image's corners as the upload sends them. */
+export interface UploadCorners {
+  readonly west: number;
+  readonly south: number;
+  readonly east: number;
+  readonly north: number;
+}
+
 /** The site map's data: the site's review, the deployment's map settings and the site image. */
 @Injectable({ providedIn: 'root' })
 export class SiteMapStore {
@@ -38,15 +65,65 @@ export class SiteMapStore {
   readonly isLoading = signal(false);
   readonly problem = signal<string | null>(null);
 
+  readonly shortlist = signal<MapShortlist | null>(null);
+  private loadTicket = 0;
+
+  /** One site's review, without keeping it (to find the first site with data). */
+  fetchReview(siteId: string): Promise<SiteReview> {
+    return firstValueFrom(this.http.get<SiteReview>(`/api/review/sites/${siteId}`));
+  }
+
+  /** Shows a review already fetched. */
+  show(review: SiteReview): void {
+    this.problem.set(null);
+    this.shortlist.set(null);
+    this.review.set(review);
+  }
+
+  /** Loads a site's review; when the user picks another site meanwhile, only the latest answer is kept. */
   async load(siteId: string): Promise<void> {
+    const ticket = ++this.loadTicket;
     this.isLoading.set(true);
     this.problem.set(null);
+    this.shortlist.set(null);
     try {
-      this.review.set(await firstValueFrom(this.http.get<SiteReview>(`/api/review/sites/${siteId}`)));
+      const review = await this.fetchReview(siteId);
+      if (ticket === this.loadTicket) this.review.set(review);
     } catch {
-      this.problem.set('The site could not be loaded. Check the connection and try again.');
+      if (ticket === this.loadTicket) this.problem.set('The site could not be loaded. Check the connection and try again.');
     } finally {
-      this.isLoading.set(false);
+      if (ticket === this.loadTicket) this.isLoading.set(false);
+    }
+  }
+
+  /** The site's shortlist (net value per pile from the engine on the server); an error message when it cannot be had. */
+  async loadShortlist(siteId: string): Promise<string | null> {
+    try {
+      this.shortlist.set(await firstValueFrom(this.http.get<MapShortlist>('/api/shortlist', { params: new HttpParams().set('site', siteId) })));
+      return null;
+    } catch (error) {
+      this.shortlist.set(null);
+      return `Net values could not be loaded: ${toApiProblem(error).message}`;
+    }
+  }
+
+  /** Admins: sends the site image and its corners (no file: moves the stored one); answers the stored image record. */
+  uploadImage(siteId: string, file: File | null, corners: UploadCorners): Promise<MapImage> {
+    const form = new FormData();
+    for (const [field, value] of Object.entries(corners)) {
+      form.append(field, String(value));
+    }
+    if (file) {
+      form.append('image', file, file.name);
+    }
+    return firstValueFrom(this.http.put<MapImage>(`/api/sites/${siteId}/image`, form));
+  }
+
+  /** Puts a new image record into the review shown, so the map draws it at once. */
+  replaceImage(image: MapImage): void {
+    const review = this.review();
+    if (review) {
+      this.review.set({ ...review, image });
     }
   }
 

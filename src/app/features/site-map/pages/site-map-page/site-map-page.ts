@@ -10,11 +10,19 @@ import { PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cau
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { rampCss } from '../../../../shared/ui/colour-ramp/colour-ramp';
 import { GradeLegend } from '../../../../shared/ui/grade-legend/grade-legend';
+import { openingSite, rememberSiteId, rememberedSiteId } from '../../../../core/site-choice/remembered-site';
 import { addCoordinateGrid, addNorthArrow, SAMPLE_SYMBOLS, sampleIcon } from '../../components/map-decorations';
+import { SiteImageForm } from '../../components/site-image-form/site-image-form';
+import { classOfNetValue, formatMoney, netValueClassLabel, netValueClasses } from '../../net-value-classes';
 import { HeatmapClient, type HeatmapPoints } from '../../heatmap-client';
 import { paintGrid, pixelsToPng } from '../../heatmap-paint';
 import { HEATMAP_GRID_SIDE } from '../../heatmap-protocol';
-import { SiteMapStore, type MapPile, type MapSample } from '../../site-map.store';
+import { SiteMapStore, type MapImage, type MapPile, type MapSample, type MapShortlistRow, type UploadCorners } from '../../site-map.store';
+
+/** Fill of piles with no grade or no rank: the hatch pattern defined in the page's template, never a colour alone. */
+const HATCH_FILL = 'url(#hs-hatch)';
+/** Roles that may read the shortlist (the server's `shortlist:read`), and so see net values. */
+const NET_VALUE_READERS = ['geologist', 'manager', 'admin'];
 
 /** Where the map opens when a site has nothing on it yet (the demo camp). */
 const FALLBACK_CENTRE: L.LatLngTuple = [-4.0512, 33.4518];
@@ -31,10 +39,10 @@ interface HeatmapState {
   readonly where: 'worker' | 'main thread';
 }
 
-/** `Site map`: piles as footprints shaded by grade, samples by type, and the grade heat map. */
+/** `Site map`: piles as footprints shaded by grade or net value, samples by type, the grade heat map, and (admins) the site picture. */
 @Component({
   selector: 'hs-site-map-page',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, GradeLegend],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, GradeLegend, SiteImageForm],
   templateUrl: './site-map-page.html',
   styleUrl: './site-map-page.scss',
   // Leaflet builds its own DOM, which emulated encapsulation would not reach.
@@ -56,6 +64,30 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   protected readonly heatmap = signal<HeatmapState | null>(null);
   protected readonly heatmapProblem = signal<string | null>(null);
   protected readonly selectedPile = signal<MapPile | null>(null);
+  protected readonly shadingProblem = signal<string | null>(null);
+  protected readonly isShortlistLoading = signal(false);
+  protected readonly canSeeNetValue = computed(() => NET_VALUE_READERS.includes(this.session.role() ?? ''));
+  protected readonly isAdmin = computed(() => this.session.role() === 'admin');
+  /** The box the map shows now, offered to the site picture form as corners. */
+  protected readonly viewBox = signal<UploadCorners | null>(null);
+  /** The shortlist's line per pile (net value and rank from the engine), when it is loaded for this site. */
+  protected readonly shortlistRows = computed(() => {
+    const shortlist = this.store.shortlist();
+    return shortlist && shortlist.site.id === this.siteId() ? new Map(shortlist.rows.map((row) => [row.pileId, row])) : null;
+  });
+  protected readonly currency = computed(() => this.store.shortlist()?.parameters.currency ?? '');
+  protected readonly valueClasses = computed(() => {
+    const rows = [...(this.shortlistRows()?.values() ?? [])];
+    const currency = this.currency();
+    const classes = netValueClasses(rows.flatMap((row) => (row.rank !== null && row.netValue !== null ? [row.netValue] : [])));
+    return classes.map((entry) => ({ ...entry, label: netValueClassLabel(entry, currency) }));
+  });
+  protected readonly unrankedCount = computed(() => [...(this.shortlistRows()?.values() ?? [])].filter((row) => row.rank === null || row.netValue === null).length);
+  protected readonly selectedValue = computed<MapShortlistRow | null>(() => {
+    const row = this.selectedPile();
+    return row ? this.shortlistRows()?.get(row.pile.id) ?? null : null;
+  });
+  protected readonly money = formatMoney;
   /** Bench only: `?synthetic=N` maps N generated samples instead of a site's, `&mainThread=1` computes on the page. */
   private readonly syntheticCount = Number(this.route.snapshot.queryParamMap.get('synthetic') ?? 0);
   private readonly isMainThreadBaseline = this.route.snapshot.queryParamMap.get('mainThread') === '1';
@@ -66,6 +98,10 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   });
 
   private map: L.Map | null = null;
+  /** Counts site openings, so a slow answer for a site no longer wanted never replaces the one the user picked. */
+  private siteOpening = 0;
+  // Piles draw as SVG (the rest of the map on canvas) so a hatch pattern can fill piles with no grade or rank.
+  private readonly pileRenderer = L.svg({ padding: 0.2 });
   private readonly layers = { piles: L.layerGroup(), samples: L.layerGroup(), image: null as L.ImageOverlay | null, heatmap: null as L.ImageOverlay | null };
   private heatmapClient: HeatmapClient | null = null;
   private removeGrid: (() => void) | null = null;
@@ -84,12 +120,33 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     if (tileUrl) {
       L.tileLayer(tileUrl, { maxZoom: 22 }).addTo(map);
     }
+    const updateViewBox = () => {
+      const box = map.getBounds();
+      this.viewBox.set({ west: box.getWest(), south: box.getSouth(), east: box.getEast(), north: box.getNorth() });
+    };
+    map.on('moveend', updateViewBox);
+    updateViewBox();
     if (this.syntheticCount > 0) {
       return;
     }
-    const first = this.route.snapshot.queryParamMap.get('site') ?? this.sites()[0]?.id ?? null;
-    if (first) {
-      await this.chooseSite(first);
+    const opening = ++this.siteOpening;
+    const asked = this.route.snapshot.queryParamMap.get('site');
+    const siteIds = this.sites().map((site) => site.id);
+    const found = await openingSite(
+      asked && siteIds.includes(asked) ? [asked] : siteIds,
+      asked ? null : rememberedSiteId('site-map'),
+      (siteId) => this.store.fetchReview(siteId),
+      (review) => review.piles.length > 0 || review.samples.length > 0,
+    );
+    if (!found || opening !== this.siteOpening) {
+      return;
+    }
+    if (found.data) {
+      this.siteId.set(found.siteId);
+      this.store.show(found.data);
+      await this.redrawForSite();
+    } else {
+      await this.openSite(found.siteId);
     }
   }
 
@@ -100,12 +157,56 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     this.objectUrls.forEach((url) => URL.revokeObjectURL(url));
   }
 
+  /** The site picker: opens the site and remembers it on this device. */
   protected async chooseSite(siteId: string): Promise<void> {
+    rememberSiteId('site-map', siteId);
+    await this.openSite(siteId);
+  }
+
+  private async openSite(siteId: string): Promise<void> {
+    const opening = ++this.siteOpening;
     this.siteId.set(siteId);
-    this.selectedPile.set(null);
-    this.hideHeatmap();
     await this.store.load(siteId);
-    this.drawSite();
+    if (opening === this.siteOpening) {
+      await this.redrawForSite();
+    }
+  }
+
+  private async redrawForSite(): Promise<void> {
+    this.selectedPile.set(null);
+    this.shadingProblem.set(null);
+    this.hideHeatmap();
+    if (this.shading() === 'net-value') {
+      await this.ensureShortlist();
+    }
+    await this.drawSite();
+  }
+
+  /** Grade or net value: net value comes from the site's shortlist, fetched once per site. */
+  protected async setShading(shading: 'grade' | 'net-value'): Promise<void> {
+    this.shading.set(shading);
+    this.shadingProblem.set(null);
+    if (shading === 'net-value') {
+      await this.ensureShortlist();
+    }
+    this.drawPiles();
+  }
+
+  private async ensureShortlist(): Promise<void> {
+    const siteId = this.siteId();
+    if (!siteId || this.shortlistRows()) {
+      return;
+    }
+    this.isShortlistLoading.set(true);
+    this.shadingProblem.set(await this.store.loadShortlist(siteId));
+    this.isShortlistLoading.set(false);
+  }
+
+  /** The admin's new picture (or corners): into the review shown and onto the map at once. */
+  protected async showUploadedImage(image: MapImage): Promise<void> {
+    this.store.replaceImage(image);
+    await this.drawImage();
+    this.map?.fitBounds([[image.south, image.west], [image.north, image.east]], { maxZoom: 19 });
   }
 
   protected async toggleHeatmap(): Promise<void> {
@@ -188,22 +289,8 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     if (!map || !review) {
       return;
     }
-    this.layers.piles.clearLayers();
+    this.drawPiles();
     this.layers.samples.clearLayers();
-    this.layers.image?.remove();
-    const range = this.pileRange();
-    for (const row of review.piles) {
-      if (!row.pile.footprint) continue;
-      const meanGpt = row.estimate?.grade?.meanGpt;
-      const position = meanGpt === undefined || !range ? null : range.max > range.min ? (meanGpt - range.min) / (range.max - range.min) : 0.5;
-      const polygon = L.geoJSON(row.pile.footprint, {
-        style: { color: '#1d2430', weight: 2, fillColor: position === null ? '#ffffff' : rampCss(position), fillOpacity: position === null ? 0.2 : 0.85, dashArray: position === null ? '6 4' : undefined },
-      });
-      const label = meanGpt === undefined ? `${row.pile.code} · no grade yet` : `${row.pile.code} · ${meanGpt.toFixed(2)} g/t`;
-      polygon.bindTooltip(label, { permanent: true, direction: 'center', className: 'hs-pile-label' });
-      polygon.on('click', () => this.selectedPile.set(row));
-      this.layers.piles.addLayer(polygon);
-    }
     for (const sample of review.samples) {
       if (!sample.location) continue;
       const [lon, lat] = sample.location.coordinates;
@@ -220,13 +307,60 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     if (extent.isValid()) {
       map.fitBounds(extent.pad(0.15), { maxZoom: 19 });
     }
-    if (review.image) {
-      const url = await this.store.imageObjectUrl(review.image);
-      if (url) {
-        this.objectUrls.push(url);
-        this.layers.image = L.imageOverlay(url, [[review.image.south, review.image.west], [review.image.north, review.image.east]], { interactive: false }).addTo(map);
-        this.layers.image.bringToBack();
+    await this.drawImage();
+  }
+
+  /** Pile footprints, filled by the shading chosen; the label always says the figure in words. */
+  private drawPiles(): void {
+    const review = this.store.review();
+    this.layers.piles.clearLayers();
+    if (!review) {
+      return;
+    }
+    const isNetValue = this.shading() === 'net-value';
+    const values = this.shortlistRows();
+    const classes = this.valueClasses();
+    const currency = this.currency();
+    const range = this.pileRange();
+    for (const row of review.piles) {
+      if (!row.pile.footprint) continue;
+      let fill: string | null;
+      let label: string;
+      if (isNetValue) {
+        const line = values?.get(row.pile.id);
+        const hasRank = line !== undefined && line.rank !== null && line.netValue !== null;
+        fill = hasRank ? classOfNetValue(line.netValue as number, classes)?.fill ?? null : null;
+        label = !values ? row.pile.code : hasRank ? `${row.pile.code} · #${line.rank} · ${formatMoney(line.netValue as number, currency)}` : `${row.pile.code} · not ranked (thin data)`;
+      } else {
+        const meanGpt = row.estimate?.grade?.meanGpt;
+        const position = meanGpt === undefined || !range ? null : range.max > range.min ? (meanGpt - range.min) / (range.max - range.min) : 0.5;
+        fill = position === null ? null : rampCss(position);
+        label = meanGpt === undefined ? `${row.pile.code} · no grade yet` : `${row.pile.code} · ${meanGpt.toFixed(2)} g/t`;
       }
+      const polygon = L.geoJSON(row.pile.footprint, {
+        renderer: this.pileRenderer,
+        style: { color: '#1d2430', weight: 3, fillColor: fill ?? HATCH_FILL, fillOpacity: fill === null ? 0.9 : 0.85, dashArray: fill === null ? '8 5' : undefined },
+      } as L.GeoJSONOptions);
+      polygon.bindTooltip(label, { permanent: true, direction: 'center', className: 'hs-pile-label' });
+      polygon.on('click', () => this.selectedPile.set(row));
+      this.layers.piles.addLayer(polygon);
+    }
+  }
+
+  /** The site picture under everything else, from the review's image record. */
+  private async drawImage(): Promise<void> {
+    const map = this.map;
+    const image = this.store.review()?.image ?? null;
+    this.layers.image?.remove();
+    this.layers.image = null;
+    if (!map || !image) {
+      return;
+    }
+    const url = await this.store.imageObjectUrl(image);
+    if (url) {
+      this.objectUrls.push(url);
+      this.layers.image = L.imageOverlay(url, [[image.south, image.west], [image.north, image.east]], { interactive: false, className: 'hs-site-image' }).addTo(map);
+      this.layers.image.bringToBack();
     }
   }
 }
