@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
-import { DEMO_SITES } from '../../../server/demo/demo-scenario';
+import { DEMO_PEOPLE, DEMO_SITES } from '../../../server/demo/demo-scenario';
 import { LabelRange } from '../../../server/labels/label-range.model';
 import { parseHumanCode } from '../../../shared/sync/human-code';
 import { signInAll, type Tokens } from '../shortlist/support/shortlist-site';
@@ -33,6 +33,7 @@ function pageCount(pdf: Buffer): number {
 
 const JR = DEMO_SITES.find((site) => site.code === 'JR')!;
 const IF = DEMO_SITES.find((site) => site.code === 'IF')!;
+const SAMPLER_ID = DEMO_PEOPLE.find((person) => person.role === 'sampler')!.id;
 
 function binary(response: request.Response, callback: (error: Error | null, body: Buffer) => void): void {
   const chunks: Buffer[] = [];
@@ -105,6 +106,29 @@ describe('sample label sheets', () => {
 
       expect(codesOn(response.body as Buffer)).toHaveLength(25);
       expect(pageCount(response.body as Buffer)).toBe(2);
+    });
+
+    it('when a printed code is given to a sample on one phone, the server refuses the same code from another phone', async () => {
+      // Arrange: one label, and a pile to sample.
+      const [code] = codesOn((await getLabels(tokens.sampler, `site=${JR.id}&count=1`)).body as Buffer);
+      const pileId = randomUUID();
+      const push = (deviceId: string, mutations: unknown[]) =>
+        request(testApp.app).post('/api/sync/push').set('Authorization', `Bearer ${tokens.sampler}`).send({ deviceId, mutations });
+      const sample = (id: string, deviceId: string) => ({ mutationId: randomUUID(), entity: 'sample', id, op: 'upsert', baseRevision: null, data: {
+        id, pileId, code, sampleType: 'routine', duplicateOfId: null, standardId: null, location: null, gpsAccuracyM: null, wetMassKg: 9, moisturePct: null,
+        increments: 6, position: 'toe', collectedAt: '2026-06-01T08:00:00Z', collectorId: SAMPLER_ID, deviceId } });
+      await push('phone-a', [{ mutationId: randomUUID(), entity: 'pile', id: pileId, op: 'upsert', baseRevision: null, data: {
+        id: pileId, siteId: JR.id, code: 'JR-98-P0001', material: 'sluice-tailings', footprint: null, heightM: 2, shapeModel: 'cone', angleOfReposeDeg: 35,
+        bulkDensityTPerM3: null, moisturePct: 5, spotHeights: null, sackCount: null, sackMassKg: null, hazards: [], notes: '' } }]);
+
+      // Act
+      const first = await push('phone-a', [sample(randomUUID(), 'phone-a')]);
+      const second = await push('phone-b', [sample(randomUUID(), 'phone-b')]);
+
+      // Assert
+      expect(first.body.results).toEqual([expect.objectContaining({ status: 'applied' })]);
+      expect(second.body.results[0].status).toBe('rejected');
+      expect(JSON.stringify(second.body.results[0].errors)).toContain(`The code ${code} is already used at this site`);
     });
 
     describe('refusals', () => {

@@ -54,6 +54,11 @@ export class CaptureStore {
     });
   }
 
+  /** True when a sample on this device (live or deleted) already carries the code; the server refuses a repeat at push too. */
+  async isSampleCodeTaken(code: string): Promise<boolean> {
+    return (await this.db.samples.where('code').equals(code).count()) > 0;
+  }
+
   savePile(pile: PileData): Promise<void> {
     return this.save('pile', pile);
   }

@@ -7,14 +7,16 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
+import { parseHumanCode } from '../../../../../../shared/sync/human-code';
 import { SAMPLE_TYPES, parseEntityData, type SampleData } from '../../../../../../shared/sync/protocol';
+import { LabelScanner } from '../../../../shared/ui/label-scanner/label-scanner';
 import { SAMPLE_TYPE_LABELS, photoCount } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 
 /** A new sample of a pile: type, increments, wet mass, moisture, position, GPS point and photos. */
 @Component({
   selector: 'hs-sample-form',
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [ReactiveFormsModule, LabelScanner, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
   template: `
     <section class="hs-page">
       <h1>New sample</h1>
@@ -33,6 +35,19 @@ import { CaptureStore } from '../../capture.store';
         @if (sampleType() === 'standard') {
           <mat-form-field><mat-label>Reference standard (code on the sachet)</mat-label><input matInput formControlName="standardId" /></mat-form-field>
         }
+        <div class="label-code">
+          <mat-form-field><mat-label>Label code</mat-label>
+            <input matInput formControlName="labelCode" autocapitalize="characters" autocomplete="off" spellcheck="false" data-testid="label-code" />
+            <mat-hint>From the bag's label; leave empty and this phone numbers the sample</mat-hint>
+          </mat-form-field>
+          @if (!isScanning()) {
+            <button mat-stroked-button type="button" (click)="startScanning()" data-testid="scan-label"><mat-icon>qr_code_scanner</mat-icon> Scan label</button>
+          }
+        </div>
+        @if (isScanning()) {
+          <hs-label-scanner (codeRead)="useScannedCode($event)" (cancelled)="isScanning.set(false)" />
+        }
+        @if (labelProblem(); as problem) { <p class="error" role="alert" data-testid="label-problem">{{ problem }}</p> }
         <mat-form-field><mat-label>Increments</mat-label><input matInput type="number" inputmode="numeric" formControlName="increments" /></mat-form-field>
         <mat-form-field><mat-label>Wet mass (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="wetMassKg" /></mat-form-field>
         <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
@@ -52,6 +67,7 @@ import { CaptureStore } from '../../capture.store';
     .photo:focus-within { outline: 3px solid var(--mat-sys-primary); outline-offset: 2px; }
     .hs-file { position: absolute; width: 1px; height: 1px; opacity: 0; overflow: hidden; }
     .error { color: var(--mat-sys-error); }
+    .label-code { display: flex; flex-wrap: wrap; gap: 8px; align-items: flex-start; } .label-code mat-form-field { flex: 1 1 200px; }
   `,
 })
 export default class SampleForm {
@@ -71,12 +87,15 @@ export default class SampleForm {
     position: [''],
     duplicateOfId: [null as string | null],
     standardId: [''],
+    labelCode: [''],
   });
   protected readonly sampleType = toSignal(this.form.controls.sampleType.valueChanges, { initialValue: this.form.controls.sampleType.value });
   private readonly pileId = toSignal(this.form.controls.pileId.valueChanges, { initialValue: '' });
   /** Samples of the chosen pile, for "Duplicate of". */
   protected readonly samplesOfPile = computed(() => this.store.samples().filter((sample) => sample.pileId === this.pileId()));
   protected readonly accuracyM = signal<number | null>(null);
+  protected readonly isScanning = signal(false);
+  protected readonly labelProblem = signal<string | null>(null);
   private location: SampleData['location'] = null;
 
   constructor() {
@@ -84,6 +103,36 @@ export default class SampleForm {
       this.location = { type: 'Point', coordinates: [position.coords.longitude, position.coords.latitude] };
       this.accuracyM.set(Math.round(position.coords.accuracy));
     }, () => undefined, { enableHighAccuracy: true, timeout: 10_000 });
+  }
+
+  protected startScanning(): void {
+    this.labelProblem.set(null);
+    this.isScanning.set(true);
+  }
+
+  /** A code read from a label: refused at once when this device already used it. */
+  protected async useScannedCode(code: string): Promise<void> {
+    this.isScanning.set(false);
+    const problem = await this.labelCodeProblem(code, null);
+    this.labelProblem.set(problem);
+    if (!problem) {
+      this.form.controls.labelCode.setValue(code);
+    }
+  }
+
+  /** Why a label code cannot be this sample's code, or null when it can. */
+  private async labelCodeProblem(code: string, siteCode: string | null): Promise<string | null> {
+    const parts = parseHumanCode(code);
+    if (!parts || parts.kind !== 'sample') {
+      return `${code} is not a sample label code (it looks like JR-03-0042)`;
+    }
+    if (siteCode !== null && parts.siteCode !== siteCode) {
+      return `${code} is a label of site ${parts.siteCode}, but this pile is at ${siteCode}`;
+    }
+    if (await this.store.isSampleCodeTaken(code)) {
+      return `${code} is already used by a sample on this phone: take a new label`;
+    }
+    return null;
   }
 
   protected keepPhoto(event: Event): void {
@@ -101,8 +150,14 @@ export default class SampleForm {
       this.errors.set(['Choose the pile']);
       return;
     }
+    const labelCode = value.labelCode.trim().toUpperCase();
+    const labelProblem = labelCode ? await this.labelCodeProblem(labelCode, site.code) : null;
+    if (labelProblem) {
+      this.labelProblem.set(labelProblem);
+      return;
+    }
     const sample: SampleData = {
-      id: crypto.randomUUID(), pileId: pile.id, code: await this.store.nextCode(site.code, 'sample'), sampleType: value.sampleType,
+      id: crypto.randomUUID(), pileId: pile.id, code: labelCode || (await this.store.nextCode(site.code, 'sample')), sampleType: value.sampleType,
       duplicateOfId: value.sampleType === 'duplicate' ? value.duplicateOfId : null,
       standardId: value.sampleType === 'standard' ? value.standardId.trim() || null : null, location: this.location, gpsAccuracyM: this.accuracyM(), wetMassKg: value.wetMassKg,
       moisturePct: value.moisturePct, increments: value.increments, position: value.position, collectedAt: new Date().toISOString(),
