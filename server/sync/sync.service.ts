@@ -180,6 +180,9 @@ export class SyncService {
       return { deviceId, deviceNumber: existing.number };
     }
     return this.database.transaction(async (transaction) => {
+      // Two first syncs at once (or one device asking twice) must not take the same number: lock the
+      // revision counter row, the one every writer already queues on, so registrations run one at a time.
+      await SyncRevision.findByPk(1, { transaction, lock: transaction.LOCK.UPDATE });
       const again = await DeviceNumber.findByPk(deviceId, { transaction });
       if (again) {
         return { deviceId, deviceNumber: again.number };

@@ -63,3 +63,29 @@ describe('POST /api/sync/push from many devices at once', () => {
     expect(pulledIds).toEqual(sentIds);
   });
 });
+
+describe('POST /api/sync/device from many devices at once', () => {
+  let app: SyncTestApp;
+
+  beforeAll(async () => {
+    app = await createSyncTestApp();
+  });
+
+  afterAll(() => app.close());
+
+  it('gives each device its own number, and the same number again to a device that asks twice at once', async () => {
+    const deviceIds = Array.from({ length: 6 }, (_, index) => `first-sync-${index}`);
+    const asks = [...deviceIds, ...deviceIds];
+
+    const answers = await Promise.all(asks.map((deviceId) =>
+      app.as('sampler').post('/api/sync/device').send({ deviceId }).expect(200)));
+
+    const numberOf = new Map<string, number>();
+    for (const { body } of answers) {
+      const known = numberOf.get(body.deviceId);
+      expect(known === undefined || known === body.deviceNumber).toBe(true);
+      numberOf.set(body.deviceId, body.deviceNumber);
+    }
+    expect(new Set(numberOf.values()).size).toBe(deviceIds.length);
+  });
+});
