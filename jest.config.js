@@ -28,7 +28,8 @@ module.exports = {
           { tsconfig: '<rootDir>/tsconfig.spec.json', stringifyContentPathRegex: '\\.(html|svg)$' },
         ],
       },
-      transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$)'],
+      // Angular's CLDR locale files and Transloco's helpers are ES modules in .js files.
+      transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$|@angular/common/locales/|@jsverse/)'],
       // Client code that runs the engine (an estimate made on the device) loads it the same way.
       moduleNameMapper: esmOnlyPackages,
     },
