@@ -1,10 +1,10 @@
 import type { Role } from '../../../../shared/accounts/roles';
 
-/** How each role is named on screen, with an icon to read it at a glance. */
+/** How each role is named on screen (a translation key), with an icon to read it at a glance. */
 export const ROLE_LABELS: Record<Role, { readonly label: string; readonly icon: string }> = {
-  sampler: { label: 'Sampler (field crew)', icon: 'hiking' },
-  geologist: { label: 'Geologist', icon: 'terrain' },
-  lab: { label: 'Lab contact', icon: 'science' },
-  manager: { label: 'Manager', icon: 'payments' },
-  admin: { label: 'Admin', icon: 'admin_panel_settings' },
+  sampler: { label: 'common.roles.sampler', icon: 'hiking' },
+  geologist: { label: 'common.roles.geologist', icon: 'terrain' },
+  lab: { label: 'common.roles.lab', icon: 'science' },
+  manager: { label: 'common.roles.manager', icon: 'payments' },
+  admin: { label: 'common.roles.admin', icon: 'admin_panel_settings' },
 };

@@ -29,3 +29,27 @@ describe('Shell', () => {
     expect(localStorage.getItem('heapsight.sunlight')).toBe('1');
   });
 });
+
+describe('Shell in another language', () => {
+  beforeEach(() => {
+    localStorage.clear();
+    TestBed.configureTestingModule({ imports: [Shell], providers: [provideRouter([])] });
+  });
+
+  it('names the screens in Kiswahili and French after a switch', async () => {
+    const { AppLanguage } = await import('../../../i18n/app-language');
+    const fixture = TestBed.createComponent(Shell);
+    fixture.detectChanges();
+    await TestBed.inject(AppLanguage).use('sw');
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(fixture.nativeElement.textContent).toContain('Kusanya');
+    expect(fixture.nativeElement.textContent).toContain('Usalama');
+
+    await TestBed.inject(AppLanguage).use('fr');
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(fixture.nativeElement.textContent).toContain('Saisie');
+    expect(fixture.nativeElement.textContent).toContain('Sécurité');
+  });
+});

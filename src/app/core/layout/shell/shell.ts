@@ -1,6 +1,8 @@
 import { DOCUMENT, Component, computed, inject, signal } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { LanguagePicker } from '../../../i18n/language-picker/language-picker';
 import { AuthSession } from '../../auth/auth-session';
 import { ConnectivityStatus } from '../connectivity-status';
 import { DisplayMode } from '../display-mode';
@@ -18,7 +20,7 @@ const MAX_BOTTOM_ITEMS = 4;
  */
 @Component({
   selector: 'hs-shell',
-  imports: [MatIconModule, RouterOutlet, RouterLink, RouterLinkActive],
+  imports: [MatIconModule, RouterOutlet, RouterLink, RouterLinkActive, TranslocoPipe, LanguagePicker],
   templateUrl: './shell.html',
   styleUrl: './shell.scss',
   host: { '(document:keydown.escape)': 'closeDrawer()' },
