@@ -21,5 +21,5 @@ export const routes: Routes = [
   { path: 'people', canActivate: [signedInGuard(['admin'])], loadChildren: () => import('./features/people/people.routes') },
   { path: 'outbox', canActivate: [signedInGuard(['admin'])], loadChildren: () => import('./features/outbox/outbox.routes') },
   { path: 'profile', canActivate: [signedInGuard()], loadChildren: () => import('./features/profile/profile.routes') },
-  { path: '**', loadComponent: () => import('./core/layout/not-found/not-found') },
+  { path: '**', title: 'common.titles.notFound', loadComponent: () => import('./core/layout/not-found/not-found') },
 ];

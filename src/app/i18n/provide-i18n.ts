@@ -1,8 +1,10 @@
 import { EnvironmentProviders, inject, isDevMode, makeEnvironmentProviders, provideAppInitializer } from '@angular/core';
+import { TitleStrategy } from '@angular/router';
 import { provideTransloco } from '@jsverse/transloco';
 import { AppLanguage } from './app-language';
 import { LANGUAGES, DEFAULT_LANGUAGE } from './languages';
 import { BundledTranslationLoader } from './translation-loader';
+import { TranslatedTitleStrategy } from './translated-title-strategy';
 
 /** Transloco with Heapsight's three languages; the first screen waits for the remembered one. */
 export function provideI18n(): EnvironmentProviders {
@@ -19,5 +21,6 @@ export function provideI18n(): EnvironmentProviders {
       loader: BundledTranslationLoader,
     }),
     provideAppInitializer(() => inject(AppLanguage).start()),
+    { provide: TitleStrategy, useClass: TranslatedTitleStrategy },
   ]);
 }

@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Labels · Heapsight', loadComponent: () => import('./pages/labels-page/labels-page') },
+  { path: '', title: 'common.titles.labels', loadComponent: () => import('./pages/labels-page/labels-page') },
 ] satisfies Routes;

@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Outbox · Heapsight', loadComponent: () => import('./pages/outbox-page/outbox-page') },
+  { path: '', title: 'common.titles.outbox', loadComponent: () => import('./pages/outbox-page/outbox-page') },
 ] satisfies Routes;

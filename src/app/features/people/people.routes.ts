@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'People & sites · Heapsight', loadComponent: () => import('./pages/people-page/people-page') },
+  { path: '', title: 'common.titles.people', loadComponent: () => import('./pages/people-page/people-page') },
 ] satisfies Routes;

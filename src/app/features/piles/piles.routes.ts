@@ -1,6 +1,6 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Piles · Heapsight', loadComponent: () => import('./pages/piles-page/piles-page') },
-  { path: ':id', title: 'Pile · Heapsight', loadComponent: () => import('./pages/pile-detail-page/pile-detail-page') },
+  { path: '', title: 'common.titles.piles', loadComponent: () => import('./pages/piles-page/piles-page') },
+  { path: ':id', title: 'common.titles.pile', loadComponent: () => import('./pages/pile-detail-page/pile-detail-page') },
 ] satisfies Routes;

@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Profile · Heapsight', loadComponent: () => import('./pages/profile-page/profile-page') },
+  { path: '', title: 'common.titles.profile', loadComponent: () => import('./pages/profile-page/profile-page') },
 ] satisfies Routes;

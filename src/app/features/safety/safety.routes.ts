@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Safety · Heapsight', loadComponent: () => import('./pages/safety-page/safety-page') },
+  { path: '', title: 'common.titles.safety', loadComponent: () => import('./pages/safety-page/safety-page') },
 ] satisfies Routes;

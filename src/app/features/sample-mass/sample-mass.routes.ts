@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Sample mass · Heapsight', loadComponent: () => import('./pages/sample-mass-page/sample-mass-page') },
+  { path: '', title: 'common.titles.sampleMass', loadComponent: () => import('./pages/sample-mass-page/sample-mass-page') },
 ] satisfies Routes;

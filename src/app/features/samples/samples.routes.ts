@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Samples · Heapsight', loadComponent: () => import('./pages/samples-page/samples-page') },
+  { path: '', title: 'common.titles.samples', loadComponent: () => import('./pages/samples-page/samples-page') },
 ] satisfies Routes;

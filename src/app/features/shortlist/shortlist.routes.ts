@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Shortlist · Heapsight', loadComponent: () => import('./pages/shortlist-page/shortlist-page') },
+  { path: '', title: 'common.titles.shortlist', loadComponent: () => import('./pages/shortlist-page/shortlist-page') },
 ] satisfies Routes;

@@ -2,5 +2,5 @@ import { Routes } from '@angular/router';
 
 /** The page e-mailed links open (`/set-password?token=…`), for invitations and resets alike. */
 export default [
-  { path: '', title: 'Choose a password · Heapsight', loadComponent: () => import('./pages/set-password-page/set-password-page') },
+  { path: '', title: 'common.titles.setPassword', loadComponent: () => import('./pages/set-password-page/set-password-page') },
 ] satisfies Routes;

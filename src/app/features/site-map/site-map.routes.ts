@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Site map · Heapsight', loadComponent: () => import('./pages/site-map-page/site-map-page') },
+  { path: '', title: 'common.titles.siteMap', loadComponent: () => import('./pages/site-map-page/site-map-page') },
 ] satisfies Routes;

@@ -1,3 +1,3 @@
 import { Routes } from '@angular/router';
 
-export default [{ path: '', title: 'Sync · Heapsight', loadComponent: () => import('./pages/sync-page/sync-page') }] satisfies Routes;
+export default [{ path: '', title: 'common.titles.sync', loadComponent: () => import('./pages/sync-page/sync-page') }] satisfies Routes;

@@ -1,5 +1,5 @@
 import { Routes } from '@angular/router';
 
 export default [
-  { path: '', title: 'Trials · Heapsight', loadComponent: () => import('./pages/trials-page/trials-page') },
+  { path: '', title: 'common.titles.trials', loadComponent: () => import('./pages/trials-page/trials-page') },
 ] satisfies Routes;
