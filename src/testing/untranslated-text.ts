@@ -1,6 +1,6 @@
 import {
   BindingPipe, CombinedRecursiveAstVisitor, Interpolation, LiteralPrimitive, TmplAstBoundText, TmplAstElement,
-  TmplAstText, TmplAstTextAttribute, parseTemplate, visitAll,
+  TmplAstText, TmplAstTextAttribute, parseTemplate,
 } from '@angular/compiler';
 import type { AST, TmplAstNode } from '@angular/compiler';
 import { readFileSync, readdirSync, statSync } from 'node:fs';
@@ -63,9 +63,9 @@ class Finder extends CombinedRecursiveAstVisitor {
     super.visitBoundText(text);
   }
 
-  override visitPipe(pipe: BindingPipe, context: unknown): void {
-    this.visit(pipe.exp, context);
-    if (!FORMAT_PIPES.has(pipe.name)) for (const arg of pipe.args) this.visit(arg, context);
+  override visitPipe(pipe: BindingPipe): void {
+    this.visit(pipe.exp);
+    if (!FORMAT_PIPES.has(pipe.name)) for (const arg of pipe.args) this.visit(arg);
   }
 
   override visitLiteralPrimitive(literal: LiteralPrimitive): void {
@@ -96,7 +96,7 @@ export function untranslatedTextIn(template: string, file: string, fileText = te
   const parsed = parseTemplate(template, file, { preserveWhitespaces: false });
   if (parsed.errors?.length) throw new Error(`${file}: ${parsed.errors.map((error) => error.msg).join('; ')}`);
   const finder = new Finder();
-  visitAll(finder, parsed.nodes as TmplAstNode[]);
+  for (const node of parsed.nodes as TmplAstNode[]) node.visit(finder);
   return finder.found.map(({ text, offset }) => ({
     file,
     line: fileText.slice(0, baseOffset + offset).split('\n').length,
@@ -118,7 +118,7 @@ export function inlineTemplates(source: string): { template: string; offset: num
 }
 
 function filesUnder(folder: string, keep: (file: string) => boolean): string[] {
-  return readdirSync(folder).flatMap((name) => {
+  return readdirSync(folder).flatMap((name: string) => {
     const path = join(folder, name);
     if (statSync(path).isDirectory()) return filesUnder(path, keep);
     return keep(path) ? [path] : [];
