@@ -1,5 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, computed, effect, inject, signal, untracked } from '@angular/core';
+import { TranslocoService } from '@jsverse/transloco';
 import { liveQuery } from 'dexie';
 import { firstValueFrom } from 'rxjs';
 import type { ConflictView, ResolveConflictRequest } from '../../../../shared/sync/protocol';
@@ -7,6 +8,19 @@ import { AuthSession } from '../../core/auth/auth-session';
 import { heapsightDb } from '../../core/db/heapsight-db';
 import { toApiProblem } from '../../core/http/api-error';
 import { SyncService } from '../../core/sync/sync.service';
+import { problemText, type ProblemKeys } from '../sign-in/problem-text';
+
+/** Why settling a conflict was refused, in words for this screen (the server's words otherwise). */
+const RESOLVE_PROBLEMS: ProblemKeys = {
+  offline: 'sync.problems.offline',
+  forbidden: 'sync.problems.forbidden',
+  not_found: 'sync.problems.notFound',
+  conflict: 'sync.problems.alreadyResolved',
+  validation_failed: 'sync.problems.invalidVersion',
+  unauthenticated: 'sync.problems.signIn',
+  token_expired: 'sync.problems.signIn',
+  internal: 'sync.problems.internal',
+};
 
 /** Where the conflict list came from: the server just now, or only this device's copy. */
 export type ConflictListSource = 'server' | 'device';
@@ -38,6 +52,7 @@ export class SyncConflictsStore {
   private readonly http = inject(HttpClient);
   private readonly session = inject(AuthSession);
   private readonly sync = inject(SyncService);
+  private readonly transloco = inject(TranslocoService);
   private readonly db = heapsightDb();
 
   readonly conflicts = signal<ConflictView[]>([]);
@@ -83,7 +98,7 @@ export class SyncConflictsStore {
       this.sync.syncNow();
       return true;
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), RESOLVE_PROBLEMS));
       return false;
     } finally {
       this.busyId.set(null);

@@ -1,72 +1,93 @@
-import { DatePipe, DecimalPipe, JsonPipe } from '@angular/common';
+import { JsonPipe } from '@angular/common';
 import { Component, inject, signal, type OnInit } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { liveQuery } from 'dexie';
 import { heapsightDb } from '../../../../core/db/heapsight-db';
 import type { OutboxEntry, SyncStatus } from '../../../../core/sync/sync-engine';
-import type { ConflictView } from '../../../../../../shared/sync/protocol';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import type { ConflictView, SyncEntity } from '../../../../../../shared/sync/protocol';
 import { SyncService } from '../../../../core/sync/sync.service';
 import { SyncConflictsStore, differingFields, type ConflictField } from '../../sync.store';
+
+/** What each sync stage is called on screen (translation keys). */
+const STATUS_KEYS: Readonly<Record<SyncStatus, string>> = {
+  idle: 'sync.status.idle', pushing: 'sync.status.pushing', uploading: 'sync.status.uploading', pulling: 'sync.status.pulling',
+  failed: 'sync.status.failed', 'needs-sign-in': 'sync.status.needsSignIn',
+};
+
+/** What each kind of record is called on screen (translation keys). */
+const ENTITY_KEYS: Readonly<Record<SyncEntity, string>> = {
+  pile: 'sync.entity.pile', sample: 'sync.entity.sample', panTest: 'sync.entity.panTest', photo: 'sync.entity.photo',
+};
 
 /** Sync status: queue, last sync, progress, storage, and rejected changes with their reasons. */
 @Component({
   selector: 'hs-sync-page',
-  imports: [DatePipe, DecimalPipe, JsonPipe, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [JsonPipe, LOCALE_FORMAT_PIPES, MatButtonModule, MatIconModule, MatProgressBarModule, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1>Sync</h1>
-      <p role="status">{{ sync.queueSize() }} changes waiting · last sync {{ sync.lastSyncAt() ? (sync.lastSyncAt() | date: 'short') : 'never' }}</p>
-      <button mat-flat-button type="button" (click)="sync.syncNow()"><mat-icon>sync</mat-icon> Sync now</button>
+      <h1>{{ 'sync.page.title' | transloco }}</h1>
+      <p role="status">{{ 'sync.page.queue' | transloco: { count: sync.queueSize(), when: sync.lastSyncAt() ? (sync.lastSyncAt() | hsDate: 'short') : ('sync.page.never' | transloco) } }}</p>
+      <button mat-flat-button type="button" (click)="sync.syncNow()"><mat-icon>sync</mat-icon> {{ 'sync.page.syncNow' | transloco }}</button>
       @if (sync.progress(); as progress) {
-        <p>{{ statusWords[progress.status] }} · {{ progress.mutationsSent }}/{{ progress.mutationsTotal }} changes · {{ progress.photosSent }}/{{ progress.photosTotal }} photos
-          ({{ progress.bytesSent / 1024 | number: '1.0-0' }} of {{ progress.bytesTotal / 1024 | number: '1.0-0' }} kB) · {{ progress.changesPulled }} pulled</p>
-        <mat-progress-bar mode="determinate" aria-label="Sync progress"
+        <p>{{ 'sync.page.progress' | transloco: {
+          status: (statusKeys[progress.status] | transloco),
+          mutationsSent: progress.mutationsSent, mutationsTotal: progress.mutationsTotal,
+          photosSent: progress.photosSent, photosTotal: progress.photosTotal,
+          kbSent: (progress.bytesSent / 1024 | hsNumber: '1.0-0'), kbTotal: (progress.bytesTotal / 1024 | hsNumber: '1.0-0'),
+          pulled: progress.changesPulled } }}</p>
+        <mat-progress-bar mode="determinate" [attr.aria-label]="'sync.page.progressLabel' | transloco"
           [value]="progress.mutationsTotal + progress.photosTotal === 0 ? 100 : (100 * (progress.mutationsSent + progress.photosSent)) / (progress.mutationsTotal + progress.photosTotal)" />
-        @if (progress.status === 'needs-sign-in') { <p role="alert"><mat-icon>login</mat-icon> Sign in again to sync; everything stays on this phone.</p> }
-        @if (progress.error && progress.status === 'failed') { <p role="alert">Sync failed ({{ progress.error }}); it will try again.</p> }
+        @if (progress.status === 'needs-sign-in') { <p role="alert"><mat-icon>login</mat-icon> {{ 'sync.page.needsSignIn' | transloco }}</p> }
+        @if (progress.error && progress.status === 'failed') { <p role="alert">{{ 'sync.page.failed' | transloco: { error: progress.error } }}</p> }
       }
       @if (storage(); as storage) {
-        <p>Storage used {{ storage.usedBytes / 1048576 | number: '1.0-1' }} MB of {{ storage.quotaBytes / 1048576 | number: '1.0-0' }} MB
-          · {{ storage.isPersisted ? 'kept by the browser' : 'may be cleared when the phone is full' }}</p>
+        <p>{{ 'sync.page.storage' | transloco: {
+          used: (storage.usedBytes / 1048576 | hsNumber: '1.0-1'), quota: (storage.quotaBytes / 1048576 | hsNumber: '1.0-0'),
+          persistence: ((storage.isPersisted ? 'sync.page.persisted' : 'sync.page.notPersisted') | transloco) } }}</p>
       }
-      <h2>Rejected changes ({{ rejected().length }})</h2>
+      <h2>{{ 'sync.rejected.title' | transloco: { count: rejected().length } }}</h2>
       <ul>
         @for (entry of rejected(); track entry.mutationId) {
-          <li>{{ entry.entity }} {{ code(entry) }}:
-            @for (error of entry.rejectedErrors; track error.path) { <span>{{ error.path || 'permission' }} — {{ error.message }}</span> }
-            <button mat-stroked-button type="button" (click)="retry(entry)"><mat-icon>replay</mat-icon> Send again</button>
-            <button mat-stroked-button type="button" (click)="discard(entry)"><mat-icon>delete</mat-icon> Discard</button></li>
+          <li>{{ entityKeys[entry.entity] | transloco }} {{ code(entry) }}:
+            @for (error of entry.rejectedErrors; track error.path) { <span>{{ error.path || ('sync.rejected.permission' | transloco) }} — {{ error.message }}</span> }
+            <button mat-stroked-button type="button" (click)="retry(entry)"><mat-icon>replay</mat-icon> {{ 'sync.rejected.sendAgain' | transloco }}</button>
+            <button mat-stroked-button type="button" (click)="discard(entry)"><mat-icon>delete</mat-icon> {{ 'sync.rejected.discard' | transloco }}</button></li>
         }
       </ul>
 
-      <h2>Conflicts ({{ conflicts.conflicts().length }})</h2>
+      <h2>{{ 'sync.conflicts.title' | transloco: { count: conflicts.conflicts().length } }}</h2>
       @if (conflicts.conflicts().length > 0) {
         @if (conflicts.canResolve()) {
-          <p>Two people changed the same record. Both versions are kept; choose which one stands, or take fields from each.</p>
+          <p>{{ 'sync.conflicts.resolveHelp' | transloco }}</p>
         } @else {
-          <p class="note" role="note"><mat-icon aria-hidden="true">info</mat-icon> A geologist will resolve these. Both versions are kept on the server; nothing you captured is lost.</p>
+          <p class="note" role="note"><mat-icon aria-hidden="true">info</mat-icon> {{ 'sync.conflicts.geologistWill' | transloco }}</p>
         }
-        @if (conflicts.source() === 'device') { <p class="hs-muted">Shown from this phone; connect to see the server's list.</p> }
+        @if (conflicts.source() === 'device') { <p class="hs-muted">{{ 'sync.conflicts.fromDevice' | transloco }}</p> }
       }
       @if (conflicts.problem(); as problem) { <p role="alert" class="error">{{ problem }}</p> }
       @for (conflict of conflicts.conflicts(); track conflict.id) {
-        <article class="conflict" [attr.aria-label]="'Conflict on ' + recordLabel(conflict)">
+        <article class="conflict" [attr.aria-label]="'sync.conflicts.label' | transloco: { record: recordLabel(conflict) }">
           <h3><mat-icon aria-hidden="true">call_split</mat-icon> {{ recordLabel(conflict) }}</h3>
-          <p class="hs-muted">{{ conflict.deviceOp === 'delete' ? 'Deleted' : 'Changed' }} on device {{ conflict.deviceId }} on top of revision {{ conflict.baseRevision ?? 'none' }}; the server was at {{ conflict.serverRevision }} · {{ conflict.createdAt | date: 'short' }}</p>
+          <p class="hs-muted">{{ 'sync.conflicts.meta' | transloco: {
+            change: ((conflict.deviceOp === 'delete' ? 'sync.conflicts.deleted' : 'sync.conflicts.changed') | transloco),
+            deviceId: conflict.deviceId, base: conflict.baseRevision ?? ('sync.conflicts.noRevision' | transloco),
+            server: conflict.serverRevision, when: (conflict.createdAt | hsDate: 'short') } }}</p>
           @if (conflict.serverData === null) {
-            <p>This phone's version is waiting on the server beside the newer one.</p>
+            <p>{{ 'sync.conflicts.waitingBeside' | transloco }}</p>
           } @else {
             <table>
-              <thead><tr><th scope="col">Field</th><th scope="col">Device</th><th scope="col">Server</th>@if (conflicts.canResolve()) { <th scope="col">Keep</th> }</tr></thead>
+              <thead><tr><th scope="col">{{ 'sync.conflicts.field' | transloco }}</th><th scope="col">{{ 'sync.conflicts.device' | transloco }}</th><th scope="col">{{ 'sync.conflicts.server' | transloco }}</th>@if (conflicts.canResolve()) { <th scope="col">{{ 'sync.conflicts.keep' | transloco }}</th> }</tr></thead>
               <tbody>
                 @for (field of fieldsOf(conflict); track field.field) {
                   <tr>
                     <th scope="row">{{ field.field }}</th><td>{{ field.deviceValue | json }}</td><td>{{ field.serverValue | json }}</td>
                     @if (conflicts.canResolve()) {
                       <td><button mat-stroked-button type="button" [attr.aria-pressed]="takesDevice(conflict, field.field)" (click)="toggleField(conflict, field.field)"
-                        [attr.aria-label]="'Keep ' + (takesDevice(conflict, field.field) ? 'device' : 'server') + ' value of ' + field.field">{{ takesDevice(conflict, field.field) ? 'Device' : 'Server' }}</button></td>
+                        [attr.aria-label]="(takesDevice(conflict, field.field) ? 'sync.conflicts.keepDeviceValue' : 'sync.conflicts.keepServerValue') | transloco: { field: field.field }">{{ (takesDevice(conflict, field.field) ? 'sync.conflicts.device' : 'sync.conflicts.server') | transloco }}</button></td>
                     }
                   </tr>
                 }
@@ -75,10 +96,10 @@ import { SyncConflictsStore, differingFields, type ConflictField } from '../../s
           }
           @if (conflicts.canResolve()) {
             <div class="choices">
-              <button mat-flat-button type="button" [disabled]="conflicts.busyId() === conflict.id" (click)="resolve(conflict, 'device')"><mat-icon>smartphone</mat-icon> Keep device</button>
-              <button mat-stroked-button type="button" [disabled]="conflicts.busyId() === conflict.id" (click)="resolve(conflict, 'server')"><mat-icon>dns</mat-icon> Keep server</button>
+              <button mat-flat-button type="button" [disabled]="conflicts.busyId() === conflict.id" (click)="resolve(conflict, 'device')"><mat-icon>smartphone</mat-icon> {{ 'sync.conflicts.keepDevice' | transloco }}</button>
+              <button mat-stroked-button type="button" [disabled]="conflicts.busyId() === conflict.id" (click)="resolve(conflict, 'server')"><mat-icon>dns</mat-icon> {{ 'sync.conflicts.keepServer' | transloco }}</button>
               @if (conflict.serverData !== null && conflict.deviceOp === 'upsert') {
-                <button mat-stroked-button type="button" [disabled]="conflicts.busyId() === conflict.id || !hasDeviceFields(conflict)" (click)="resolveMerged(conflict)"><mat-icon>merge</mat-icon> Save merged</button>
+                <button mat-stroked-button type="button" [disabled]="conflicts.busyId() === conflict.id || !hasDeviceFields(conflict)" (click)="resolveMerged(conflict)"><mat-icon>merge</mat-icon> {{ 'sync.conflicts.saveMerged' | transloco }}</button>
               }
             </div>
           }
@@ -98,9 +119,9 @@ import { SyncConflictsStore, differingFields, type ConflictField } from '../../s
 export default class SyncPage implements OnInit {
   protected readonly sync = inject(SyncService);
   protected readonly conflicts = inject(SyncConflictsStore);
-  protected readonly statusWords: Readonly<Record<SyncStatus, string>> = {
-    idle: 'Up to date', pushing: 'Sending changes', uploading: 'Sending photos', pulling: 'Receiving', failed: 'Stopped', 'needs-sign-in': 'Sign in needed',
-  };
+  private readonly transloco = inject(TranslocoService);
+  protected readonly statusKeys = STATUS_KEYS;
+  protected readonly entityKeys = ENTITY_KEYS;
   private readonly db = heapsightDb();
   /** Per conflict, the fields a geologist takes from the device for a merged record. */
   private readonly deviceFields = signal<Record<string, readonly string[]>>({});
@@ -129,9 +150,8 @@ export default class SyncPage implements OnInit {
   }
 
   protected recordLabel(conflict: ConflictView): string {
-    const words = { pile: 'Pile', sample: 'Sample', panTest: 'Pan test', photo: 'Photo' } as const;
     const code = (conflict.deviceData as { code?: string } | null)?.code ?? (conflict.serverData as { code?: string } | null)?.code;
-    return `${words[conflict.entity]} ${code ?? conflict.recordId.slice(0, 8)}`;
+    return `${this.transloco.translate(ENTITY_KEYS[conflict.entity])} ${code ?? conflict.recordId.slice(0, 8)}`;
   }
 
   protected fieldsOf(conflict: ConflictView): ConflictField[] {
