@@ -42,11 +42,11 @@ describe('estimateOnDevice', () => {
     expect(result.ok ? result.value.sampleGrades.map((entry) => entry.gradeGpt) : []).toEqual([4]);
   });
 
-  it('counts samples with no pan test, says so, and says the grades are pan estimates only', () => {
+  it('counts samples with no pan test and leaves them out of the grade', () => {
     const result = estimateOnDevice(pile, [sample(1), sample(2)], [panTest(1, 10)]);
-    const assumptions = result.ok ? result.value.estimate.assumptions : [];
-    expect(assumptions).toContain('1 sample(s) with no pan test or assay yet left out of the grade');
-    expect(assumptions).toContain('grades from pan tests only: this device holds no assays and no site calibration');
+    expect(result.ok ? result.value.ungradedCount : NaN).toBe(1);
+    expect(result.ok ? result.value.estimate.grade?.n : NaN).toBe(1);
+    expect(estimateOnDevice(pile, [sample(1)], [panTest(1, 10)])).toMatchObject({ ok: true, value: { ungradedCount: 0 } });
   });
 
   it('answers the engine\'s refusal when the pile cannot be estimated', () => {

@@ -13,10 +13,15 @@ export interface DeviceSampleGrade {
   readonly gradeSource: 'pan' | null;
 }
 
-/** The estimate made on the device, with the per-sample grades it used. */
+/**
+ * The estimate made on the device, with the per-sample grades it used and how many samples had no
+ * grade. The page says in words (in the reader's language) that these grades are pan estimates only
+ * and how many samples were left out; the estimate's own assumptions are the engine's.
+ */
 export interface DeviceEstimate {
   readonly estimate: PileEstimate;
   readonly sampleGrades: readonly DeviceSampleGrade[];
+  readonly ungradedCount: number;
 }
 
 /**
@@ -64,11 +69,5 @@ export function estimateOnDevice(
   if (!result.ok) {
     return result;
   }
-  const ungraded = sampleGrades.length - counted.length;
-  const assumptions = [
-    ...result.value.assumptions,
-    'grades from pan tests only: this device holds no assays and no site calibration',
-    ...(ungraded > 0 ? [`${ungraded} sample(s) with no pan test or assay yet left out of the grade`] : []),
-  ];
-  return { ok: true, value: { estimate: { ...result.value, assumptions }, sampleGrades } };
+  return { ok: true, value: { estimate: result.value, sampleGrades, ungradedCount: sampleGrades.length - counted.length } };
 }

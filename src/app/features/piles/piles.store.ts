@@ -35,6 +35,7 @@ export class PilesStore {
   private readonly sync = inject(SyncService);
   readonly rows = signal<readonly PileRow[]>([]);
   readonly isLoading = signal(false);
+  /** The translation key of what went wrong loading the site, or null. */
   readonly problem = signal<string | null>(null);
 
   async loadSite(siteId: string): Promise<void> {
@@ -44,7 +45,7 @@ export class PilesStore {
       const review = await firstValueFrom(this.http.get<{ piles: PileRow[] }>(`/api/review/sites/${siteId}`));
       this.rows.set(review.piles);
     } catch {
-      this.problem.set('The piles could not be loaded. Check the connection and try again.');
+      this.problem.set('piles.list.loadProblem');
     } finally {
       this.isLoading.set(false);
     }

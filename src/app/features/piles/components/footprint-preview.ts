@@ -1,18 +1,21 @@
 import { Component, ElementRef, ViewEncapsulation, effect, input, viewChild, type OnDestroy } from '@angular/core';
+import { TranslocoPipe } from '@jsverse/transloco';
 import * as L from 'leaflet';
 import type { PileData } from '../../../../../shared/sync/protocol';
 
 /** A small north-up map of one pile's footprint and its sample points, on a plain background. */
 @Component({
   selector: 'hs-footprint-preview',
-  template: `<div #map class="footprint-preview" role="img" [attr.aria-label]="'Footprint of ' + label()"></div>`,
+  imports: [TranslocoPipe],
+  template: `<div #map class="footprint-preview" role="img" [attr.aria-label]="'piles.footprintPreview.label' | transloco: { label: label() || ('piles.footprintPreview.thePile' | transloco) }"></div>`,
   styleUrl: './footprint-preview.scss',
   encapsulation: ViewEncapsulation.None,
 })
 export class FootprintPreview implements OnDestroy {
   readonly footprint = input<PileData['footprint']>(null);
   readonly points = input<readonly [number, number][]>([]);
-  readonly label = input('the pile');
+  /** What the footprint is of (the pile's code); empty says "the pile" in the active language. */
+  readonly label = input('');
   private readonly host = viewChild.required<ElementRef<HTMLDivElement>>('map');
   private map: L.Map | null = null;
 

@@ -1,22 +1,28 @@
-import { DecimalPipe, PercentPipe } from '@angular/common';
 import { Component, computed, inject, input, signal, type OnDestroy, type OnInit } from '@angular/core';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { FormsModule } from '@angular/forms';
 import { RouterLink } from '@angular/router';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { cautionFor, PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
+import { cautionFor } from '../../../../../../shared/safety/cautions';
 import type { SampleData } from '../../../../../../shared/sync/protocol';
 import { AuthSession } from '../../../../core/auth/auth-session';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 import { FootprintPreview } from '../../components/footprint-preview';
+import { warningText } from '../../estimate-warnings';
 import { PilesStore, isUnreachable, type PileEstimateView, type PileView } from '../../piles.store';
+
+/** Why there is no estimate: a translation key with its parameters, or the server's own words. */
+type EstimateProblem = { readonly key: string; readonly params?: Record<string, unknown>; readonly text?: undefined } | { readonly key?: undefined; readonly params?: undefined; readonly text: string };
 
 /** One pile: its footprint, photos, samples, the engine's estimate with method and warnings, and its cautions. */
 @Component({
   selector: 'hs-pile-detail-page',
-  imports: [DecimalPipe, PercentPipe, FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, CautionCard, FootprintPreview],
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES, FormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, CautionCard, FootprintPreview],
   templateUrl: './pile-detail-page.html',
   styleUrl: './pile-detail-page.scss',
 })
@@ -25,16 +31,25 @@ export default class PileDetailPage implements OnInit, OnDestroy {
   readonly id = input.required<string>();
   private readonly store = inject(PilesStore);
   private readonly session = inject(AuthSession);
-  protected readonly statement = PLANNING_ESTIMATE_STATEMENT;
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
   protected readonly pile = signal<PileView | null>(null);
   protected readonly estimate = signal<PileEstimateView | null>(null);
-  protected readonly estimateProblem = signal<string | null>(null);
+  protected readonly estimateProblem = signal<EstimateProblem | null>(null);
+  /** Samples this device holds with no pan test yet, left out of an estimate made here. */
+  protected readonly ungradedOnDevice = signal(0);
+  /** The engine's warnings in the active language (by their codes; a code the app does not know is shown as the engine wrote it). */
+  protected readonly warningTexts = computed(() => {
+    const locale = this.language.locale();
+    return (this.estimate()?.warnings ?? []).map((warning) => warningText(warning, (key, params) => this.transloco.translate(key, params), locale));
+  });
   /** True when the estimate shown was worked out on this device because the server could not be reached. */
   protected readonly isEstimateFromDevice = signal(false);
   /** True when the pile record shown is this device's copy (offline). */
   protected readonly isPileFromDevice = signal(false);
   protected readonly samples = signal<readonly (SampleData & { revision: number })[]>([]);
   protected readonly photoUrls = signal<readonly string[]>([]);
+  /** Translation keys of the page's messages. */
   protected readonly problem = signal<string | null>(null);
   protected readonly savedNote = signal<string | null>(null);
   protected readonly cautions = computed(() => (this.pile()?.hazards ?? []).map((hazard) => cautionFor(hazard)));
@@ -52,7 +67,7 @@ export default class PileDetailPage implements OnInit, OnDestroy {
       this.isPileFromDevice.set(pile !== null);
     }
     if (!pile) {
-      this.problem.set('This pile could not be loaded (it may belong to a site you are not a member of, or you are offline and this device does not hold it).');
+      this.problem.set('piles.detail.loadProblem');
       return;
     }
     this.pile.set(pile);
@@ -68,7 +83,7 @@ export default class PileDetailPage implements OnInit, OnDestroy {
     const pile = this.pile();
     if (!pile) return;
     await this.store.savePileEdit(pile, { ...this.edit });
-    this.savedNote.set('Saved on this device and queued for sync; the estimate updates once the server has it.');
+    this.savedNote.set('piles.detail.saved');
   }
 
   private async loadEstimate(): Promise<void> {
@@ -79,7 +94,7 @@ export default class PileDetailPage implements OnInit, OnDestroy {
         return;
       }
       const details = (error as { error?: { error?: { details?: { message: string }[] } } }).error?.error?.details ?? [];
-      this.estimateProblem.set(details.length > 0 ? details.map((detail) => detail.message).join('; ') : 'The estimate could not be loaded.');
+      this.estimateProblem.set(details.length > 0 ? { text: details.map((detail) => detail.message).join('; ') } : { key: 'piles.detail.estimateProblem' });
     }
   }
 
@@ -90,10 +105,11 @@ export default class PileDetailPage implements OnInit, OnDestroy {
       return false;
     }
     if (!result.ok) {
-      this.estimateProblem.set(`offline, and the samples this device holds cannot be estimated: ${result.errors.map((error) => error.message).join('; ')}`);
+      this.estimateProblem.set({ key: 'piles.detail.deviceCannotEstimate', params: { reasons: result.errors.map((error) => error.message).join('; ') } });
       return true;
     }
     this.estimate.set({ ...result.value.estimate, sampleGrades: result.value.sampleGrades });
+    this.ungradedOnDevice.set(result.value.ungradedCount);
     this.isEstimateFromDevice.set(true);
     return true;
   }
