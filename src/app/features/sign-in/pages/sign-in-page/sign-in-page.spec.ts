@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { Router, provideRouter } from '@angular/router';
 import { AuthSession } from '../../../../core/auth/auth-session';
+import { AppLanguage } from '../../../../i18n/app-language';
 import SignInPage from './sign-in-page';
 
 async function setUp(returnUrl?: string) {
@@ -73,5 +74,40 @@ describe('SignInPage', () => {
     const fixture = TestBed.createComponent(SignInPage);
     fixture.detectChanges();
     expect(fixture.nativeElement.textContent).toContain('Everything captured on this phone is kept');
+  });
+
+  it('lets a crew choose the language before signing in, and explains a refusal in it', async () => {
+    const { fixture, element, type, server } = await setUp();
+    const picker = element.querySelector('hs-language-picker button.toggle') as HTMLButtonElement;
+    picker.click();
+    fixture.detectChanges();
+    (element.querySelector('hs-language-picker button[lang=sw]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(element.querySelector('h1')?.textContent).toContain('Ingia');
+    expect(element.textContent).toContain('Umesahau nenosiri?');
+
+    await TestBed.inject(AppLanguage).use('fr');
+    fixture.detectChanges();
+    type('input[formcontrolname=email]', 'admin@demo.heapsight.test');
+    type('input[formcontrolname=password]', 'wrong');
+    (element.querySelector('button[type=submit]') as HTMLButtonElement).click();
+    server.expectOne('/api/auth/login').flush({ error: { code: 'unauthenticated', message: 'E-mail or password is wrong', details: null } }, { status: 401, statusText: 'Unauthorized' });
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(element.querySelector('[role=alert]')?.textContent).toContain('E-mail ou mot de passe incorrect');
+    expect(element.querySelector('h1')?.textContent).toContain('Se connecter');
+  });
+
+  it('keeps the server’s own words for a refusal this form has no translation for', async () => {
+    const { fixture, element, type, server } = await setUp();
+    await TestBed.inject(AppLanguage).use('sw');
+    type('input[formcontrolname=email]', 'admin@demo.heapsight.test');
+    type('input[formcontrolname=password]', 'heapsight-demo');
+    (element.querySelector('button[type=submit]') as HTMLButtonElement).click();
+    server.expectOne('/api/auth/login').flush({ error: { code: 'payload_too_large', message: 'The request body is too large', details: null } }, { status: 413, statusText: 'Too Large' });
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(element.querySelector('[role=alert]')?.textContent).toContain('The request body is too large');
   });
 });
