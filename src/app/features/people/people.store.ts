@@ -1,8 +1,10 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
+import { TranslocoService } from '@jsverse/transloco';
 import { firstValueFrom } from 'rxjs';
 import type { Role } from '../../../../shared/accounts/roles';
 import { toApiProblem } from '../../core/http/api-error';
+import { peopleProblemText } from './people-problems';
 
 /** Where a person's account stands. */
 export type PersonStatus = 'invited' | 'active' | 'disabled';
@@ -56,6 +58,7 @@ export type SiteDraft = Pick<SiteRecord, 'code' | 'name' | 'processingLat' | 'pr
 @Injectable({ providedIn: 'root' })
 export class PeopleStore {
   private readonly http = inject(HttpClient);
+  private readonly transloco = inject(TranslocoService);
   readonly people = signal<readonly Person[]>([]);
   readonly sites = signal<readonly SiteRecord[]>([]);
   readonly isLoading = signal(false);
@@ -72,7 +75,7 @@ export class PeopleStore {
       this.people.set(people.items);
       this.sites.set(sites.items);
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(peopleProblemText(this.transloco, toApiProblem(error)));
     } finally {
       this.isLoading.set(false);
     }

@@ -5,46 +5,48 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { toApiProblem } from '../../../../core/http/api-error';
+import { peopleProblemText } from '../../people-problems';
 import { PeopleStore, type SiteRecord } from '../../people.store';
 
 /** Adds a site or edits its code, name and processing point. */
 @Component({
   selector: 'hs-site-dialog',
-  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, TranslocoPipe],
   template: `
-    <h2 mat-dialog-title>{{ site ? 'Edit ' + site.code : 'Add a site' }}</h2>
+    <h2 mat-dialog-title>{{ site ? ('people.siteDialog.editTitle' | transloco: { code: site.code }) : ('people.siteDialog.addTitle' | transloco) }}</h2>
     <mat-dialog-content>
       <form [formGroup]="form" id="site-form" (ngSubmit)="save()" novalidate>
         @if (problem(); as problem) { <p class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon>{{ problem }}</p> }
         <div class="row">
           <mat-form-field appearance="outline">
-            <mat-label>Code</mat-label>
+            <mat-label>{{ 'people.sites.code' | transloco }}</mat-label>
             <input matInput formControlName="code" required maxlength="8">
-            <mat-hint>2–8 capitals or digits; starts every sample code</mat-hint>
-            @if (form.controls.code.invalid) { <mat-error>2–8 capital letters or digits, starting with a letter</mat-error> }
+            <mat-hint>{{ 'people.siteDialog.codeHint' | transloco }}</mat-hint>
+            @if (form.controls.code.invalid) { <mat-error>{{ 'people.problems.siteCode' | transloco }}</mat-error> }
           </mat-form-field>
           <mat-form-field appearance="outline">
-            <mat-label>Name</mat-label>
+            <mat-label>{{ 'people.sites.name' | transloco }}</mat-label>
             <input matInput formControlName="name" required maxlength="200">
           </mat-form-field>
         </div>
-        <p>Processing point (where hauled material goes)</p>
+        <p>{{ 'people.siteDialog.processingPoint' | transloco }}</p>
         <div class="row">
           <mat-form-field appearance="outline">
-            <mat-label>Latitude</mat-label>
+            <mat-label>{{ 'people.siteDialog.latitude' | transloco }}</mat-label>
             <input matInput type="number" formControlName="processingLat" min="-90" max="90" step="any">
           </mat-form-field>
           <mat-form-field appearance="outline">
-            <mat-label>Longitude</mat-label>
+            <mat-label>{{ 'people.siteDialog.longitude' | transloco }}</mat-label>
             <input matInput type="number" formControlName="processingLon" min="-180" max="180" step="any">
           </mat-form-field>
         </div>
       </form>
     </mat-dialog-content>
     <mat-dialog-actions align="end">
-      <button mat-button type="button" mat-dialog-close>Cancel</button>
-      <button mat-flat-button type="submit" form="site-form" [disabled]="isBusy()"><mat-icon>save</mat-icon> Save</button>
+      <button mat-button type="button" mat-dialog-close>{{ 'people.form.cancel' | transloco }}</button>
+      <button mat-flat-button type="submit" form="site-form" [disabled]="isBusy()"><mat-icon>save</mat-icon> {{ 'people.form.save' | transloco }}</button>
     </mat-dialog-actions>
   `,
   styleUrl: '../dialog.scss',
@@ -52,6 +54,7 @@ import { PeopleStore, type SiteRecord } from '../../people.store';
 export class SiteDialog {
   private readonly store = inject(PeopleStore);
   private readonly dialog = inject(MatDialogRef<SiteDialog, SiteRecord>);
+  private readonly transloco = inject(TranslocoService);
   protected readonly site = inject<{ site: SiteRecord | null }>(MAT_DIALOG_DATA).site;
   protected readonly isBusy = signal(false);
   protected readonly problem = signal<string | null>(null);
@@ -77,8 +80,9 @@ export class SiteDialog {
       );
       this.dialog.close(saved);
     } catch (error) {
-      const problem = toApiProblem(error);
-      this.problem.set(problem.details[0]?.message ?? problem.message);
+      this.problem.set(peopleProblemText(
+        this.transloco, toApiProblem(error), { conflict: 'people.problems.siteCodeTaken', not_found: 'people.problems.noSuchSite' }, { code: value.code ?? '' },
+      ));
     } finally {
       this.isBusy.set(false);
     }

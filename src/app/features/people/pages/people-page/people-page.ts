@@ -9,7 +9,10 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar, MatSnackBarModule } from '@angular/material/snack-bar';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { ROLE_LABELS } from '../../../../core/auth/role-labels';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { InviteDialog } from '../../components/invite-dialog/invite-dialog';
 import { PersonDialog } from '../../components/person-dialog/person-dialog';
 import { SiteDialog } from '../../components/site-dialog/site-dialog';
@@ -19,13 +22,15 @@ import { PeopleStore, type Person, type SentMail, type SiteRecord } from '../../
 const PAGE_SIZES = [10, 25, 100];
 
 const STATUS_ICONS: Record<Person['status'], string> = { active: 'check_circle', invited: 'schedule_send', disabled: 'block' };
+/** How each account status is written (translation keys). */
+const STATUS_KEYS: Record<Person['status'], string> = { active: 'people.status.active', invited: 'people.status.invited', disabled: 'people.status.disabled' };
 
 /** `People & sites` (admin): who may sign in, with which role and on which sites; and the sites. */
 @Component({
   selector: 'hs-people-page',
   imports: [
     MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatPaginatorModule, MatProgressBarModule,
-    MatSnackBarModule, MatSortModule, MatTableModule,
+    MatSnackBarModule, MatSortModule, MatTableModule, TranslocoPipe, LOCALE_FORMAT_PIPES,
   ],
   templateUrl: './people-page.html',
   styleUrl: './people-page.scss',
@@ -35,8 +40,11 @@ export default class PeoplePage implements OnInit {
   private readonly dialogs = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
 
   protected readonly pageSizes = PAGE_SIZES;
+  protected readonly statusKeys = STATUS_KEYS;
   protected readonly columns = ['name', 'role', 'sites', 'status', 'actions'];
   protected readonly siteColumns = ['code', 'name', 'processing', 'actions'];
   protected readonly filter = signal('');
@@ -44,11 +52,14 @@ export default class PeoplePage implements OnInit {
   protected readonly page = signal({ index: 0, size: PAGE_SIZES[0] as number });
   private readonly siteCodes = computed(() => new Map(this.store.sites().map((site) => [site.id, site.code])));
 
-  /** People matching the filter, in the chosen order; the table shows one page of them. */
+  /** People matching the filter (role and status as the reader sees them), in the chosen order; the table shows one page of them. */
   protected readonly matchingPeople = computed(() => {
     const filter = this.filter().trim().toLowerCase();
+    this.language.active(); // role and status words change with the language
+    const words = (key: string) => this.transloco.translate(key);
     const matching = this.store.people().filter((person) =>
-      [person.name, person.email, person.role, ROLE_LABELS[person.role].label, person.status, person.labName ?? '', this.codesOf(person)]
+      [person.name, person.email, person.role, words(ROLE_LABELS[person.role].label), person.status, words(STATUS_KEYS[person.status]),
+        person.labName ?? '', this.codesOf(person)]
         .join(' ').toLowerCase().includes(filter),
     );
     const { active, direction } = this.sortState();
@@ -96,7 +107,10 @@ export default class PeoplePage implements OnInit {
       .afterClosed()
       .subscribe((mail) => {
         if (mail) {
-          this.snackBar.open(mail.status === 'sent' ? 'Invitation sent; it is listed in Outbox' : `Saved, but the e-mail failed: ${mail.errorMessage}`, 'OK', { duration: 6000 });
+          const message = mail.status === 'sent'
+            ? this.transloco.translate('people.snack.invitationSent')
+            : this.transloco.translate('people.snack.mailFailed', { error: mail.errorMessage ?? '' });
+          this.snackBar.open(message, this.transloco.translate('people.snack.ok'), { duration: 6000 });
         }
       });
   }
@@ -107,7 +121,7 @@ export default class PeoplePage implements OnInit {
       .afterClosed()
       .subscribe((message) => {
         if (message) {
-          this.snackBar.open(message, 'OK', { duration: 4000 });
+          this.snackBar.open(message, this.transloco.translate('people.snack.ok'), { duration: 4000 });
         }
       });
   }
@@ -118,7 +132,7 @@ export default class PeoplePage implements OnInit {
       .afterClosed()
       .subscribe((saved) => {
         if (saved) {
-          this.snackBar.open(`Saved site ${saved.code}`, 'OK', { duration: 4000 });
+          this.snackBar.open(this.transloco.translate('people.snack.siteSaved', { code: saved.code }), this.transloco.translate('people.snack.ok'), { duration: 4000 });
         }
       });
   }
