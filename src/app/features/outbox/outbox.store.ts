@@ -1,7 +1,19 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
+import { TranslocoService } from '@jsverse/transloco';
 import { firstValueFrom } from 'rxjs';
 import { toApiProblem } from '../../core/http/api-error';
+import { problemText, type ProblemKeys } from '../sign-in/problem-text';
+
+/** Why the outbox could not be read, in words for this screen; other refusals keep the server's words. */
+export const OUTBOX_PROBLEMS: ProblemKeys = {
+  forbidden: 'outbox.problems.forbidden',
+  not_found: 'outbox.problems.notFound',
+  unauthenticated: 'outbox.problems.signIn',
+  token_expired: 'outbox.problems.signIn',
+  offline: 'outbox.problems.offline',
+  internal: 'outbox.problems.internal',
+};
 
 /** One e-mail the system sent, as `GET /api/outbox` lists it. */
 export interface OutboxItem {
@@ -23,6 +35,7 @@ export interface OutboxMessage extends OutboxItem {
 @Injectable({ providedIn: 'root' })
 export class OutboxStore {
   private readonly http = inject(HttpClient);
+  private readonly transloco = inject(TranslocoService);
   readonly items = signal<readonly OutboxItem[]>([]);
   readonly total = signal(0);
   readonly isLoading = signal(false);
@@ -37,7 +50,7 @@ export class OutboxStore {
       this.items.set(page.items);
       this.total.set(page.total);
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), OUTBOX_PROBLEMS));
     } finally {
       this.isLoading.set(false);
     }

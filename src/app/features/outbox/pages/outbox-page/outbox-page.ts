@@ -1,10 +1,13 @@
-import { DatePipe } from '@angular/common';
 import { Component, OnInit, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { toApiProblem } from '../../../../core/http/api-error';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import { problemText } from '../../../sign-in/problem-text';
+import { OUTBOX_PROBLEMS } from '../../outbox.store';
 import { OutboxStore, type OutboxMessage } from '../../outbox.store';
 
 /** A piece of a message body: plain text, or a web address to show as a link. */
@@ -15,6 +18,8 @@ interface BodyPart {
 
 const URL_PATTERN = /(https?:\/\/[^\s<>"]+)/g;
 const STATUS_ICONS = { sent: 'mark_email_read', sending: 'schedule_send', failed: 'error' } as const;
+/** How each sending status is written (translation keys). */
+const STATUS_KEYS = { sent: 'outbox.status.sent', sending: 'outbox.status.sending', failed: 'outbox.status.failed' } as const;
 
 /** Splits text into plain parts and links, so links are clickable without rendering any HTML. */
 export function splitLinks(text: string): BodyPart[] {
@@ -24,23 +29,23 @@ export function splitLinks(text: string): BodyPart[] {
 /** `Outbox` (admin): every e-mail the system sent — invitations, resets, lab batches — and whether it went. */
 @Component({
   selector: 'hs-outbox-page',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatPaginatorModule, MatProgressBarModule],
+  imports: [LOCALE_FORMAT_PIPES, MatButtonModule, MatIconModule, MatPaginatorModule, MatProgressBarModule, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1><mat-icon aria-hidden="true">outgoing_mail</mat-icon> Outbox</h1>
-      <p class="hs-muted">E-mail sent by Heapsight. In demo mode it goes to the built-in mail catcher and no further.</p>
-      @if (store.isLoading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading" /> }
+      <h1><mat-icon aria-hidden="true">outgoing_mail</mat-icon> {{ 'outbox.page.title' | transloco }}</h1>
+      <p class="hs-muted">{{ 'outbox.page.intro' | transloco }}</p>
+      @if (store.isLoading()) { <mat-progress-bar mode="indeterminate" [attr.aria-label]="'outbox.page.loading' | transloco" /> }
       @if (store.problem(); as problem) { <p class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon>{{ problem }}</p> }
 
-      <ul class="messages" aria-label="Sent e-mail">
+      <ul class="messages" [attr.aria-label]="'outbox.page.listLabel' | transloco">
         @for (item of store.items(); track item.id) {
           <li>
             <button type="button" class="summary" (click)="toggle(item.id)" [attr.aria-expanded]="opened()?.id === item.id">
               <mat-icon aria-hidden="true" [class]="'status-' + item.status">{{ statusIcons[item.status] }}</mat-icon>
               <span class="text">
                 <strong>{{ item.subject }}</strong>
-                <span>To {{ item.recipients.join(', ') }}</span>
-                <span class="hs-muted">{{ item.createdAt | date: 'd MMM y, HH:mm' }} · {{ item.status }}{{ item.attachments.length ? ' · ' + item.attachments.length + ' attachment(s)' : '' }}</span>
+                <span>{{ 'outbox.page.to' | transloco: { recipients: item.recipients.join(', ') } }}</span>
+                <span class="hs-muted">{{ item.createdAt | hsDate: 'd MMM y, HH:mm' }} · {{ statusKeys[item.status] | transloco }}@if (item.attachments.length) { · {{ 'outbox.page.attachments' | transloco: { count: item.attachments.length } }}}</span>
               </span>
             </button>
             @if (opened(); as message) {
@@ -49,17 +54,17 @@ export function splitLinks(text: string): BodyPart[] {
                   @if (message.errorMessage) { <p class="problem">{{ message.errorMessage }}</p> }
                   <p class="text-body">@for (part of parts(); track $index) {@if (part.isLink) {<a [href]="part.text">{{ part.text }}</a>} @else {{{ part.text }}}}</p>
                   @for (attachment of message.attachments; track attachment.filename) {
-                    <p class="with-icon"><mat-icon aria-hidden="true">attach_file</mat-icon>{{ attachment.filename }} ({{ attachment.sizeBytes }} bytes)</p>
+                    <p class="with-icon"><mat-icon aria-hidden="true">attach_file</mat-icon>{{ 'outbox.page.attachment' | transloco: { filename: attachment.filename, size: (attachment.sizeBytes | hsNumber) } }}</p>
                   }
                 </div>
               }
             }
           </li>
         } @empty {
-          @if (!store.isLoading()) { <li class="hs-muted">Nothing has been sent yet.</li> }
+          @if (!store.isLoading()) { <li class="hs-muted">{{ 'outbox.page.empty' | transloco }}</li> }
         }
       </ul>
-      <mat-paginator [length]="store.total()" [pageSize]="pageSize" [pageSizeOptions]="[25, 50, 100]" (page)="changePage($event)" aria-label="Pages of e-mail" />
+      <mat-paginator [length]="store.total()" [pageSize]="pageSize" [pageSizeOptions]="[25, 50, 100]" (page)="changePage($event)" [attr.aria-label]="'outbox.page.pages' | transloco" />
     </section>
   `,
   styles: `
@@ -77,7 +82,9 @@ export function splitLinks(text: string): BodyPart[] {
 })
 export default class OutboxPage implements OnInit {
   protected readonly store = inject(OutboxStore);
+  private readonly transloco = inject(TranslocoService);
   protected readonly statusIcons = STATUS_ICONS;
+  protected readonly statusKeys = STATUS_KEYS;
   protected readonly pageSize = 25;
   protected readonly opened = signal<OutboxMessage | null>(null);
   protected readonly parts = signal<BodyPart[]>([]);
@@ -100,7 +107,7 @@ export default class OutboxPage implements OnInit {
       this.parts.set(splitLinks(message.textBody));
       this.opened.set(message);
     } catch (error) {
-      this.store.problem.set(toApiProblem(error).message);
+      this.store.problem.set(problemText(this.transloco, toApiProblem(error), OUTBOX_PROBLEMS));
     }
   }
 }
