@@ -18,18 +18,24 @@ export type CornerField = (typeof CORNER_FIELDS)[number];
 /** A site image covers one camp: at most half a degree (about 55 km) each way, as the server allows. */
 export const MAX_IMAGE_SPAN_DEG = 0.5;
 
-const LIMITS: Record<CornerField, { low: number; high: number; word: string }> = {
-  west: { low: -180, high: 180, word: 'Longitude' },
-  east: { low: -180, high: 180, word: 'Longitude' },
+const LIMITS: Record<CornerField, { low: number; high: number; word: 'longitude' | 'latitude' }> = {
+  west: { low: -180, high: 180, word: 'longitude' },
+  east: { low: -180, high: 180, word: 'longitude' },
   // The map's projection stops at ±85°.
-  south: { low: -85, high: 85, word: 'Latitude' },
-  north: { low: -85, high: 85, word: 'Latitude' },
+  south: { low: -85, high: 85, word: 'latitude' },
+  north: { low: -85, high: 85, word: 'latitude' },
 };
 
-/** The form's answer: the corners, or a message per field that is wrong. */
+/** What is wrong with one corner: a translation key (under siteMap, corners) with its figures. */
+export interface CornerProblem {
+  readonly key: string;
+  readonly params?: Readonly<Record<string, number>>;
+}
+
+/** The form's answer: the corners, or what is wrong per field. */
 export type CornersCheck =
   | { readonly ok: true; readonly value: ImageCorners }
-  | { readonly ok: false; readonly errors: Partial<Record<CornerField, string>> };
+  | { readonly ok: false; readonly errors: Partial<Record<CornerField, CornerProblem>> };
 
 /** Reads a typed number: a point as the decimal mark, a leading minus for west and south. */
 function readNumber(raw: string | number | null | undefined): number | null {
@@ -42,20 +48,20 @@ function readNumber(raw: string | number | null | undefined): number | null {
 
 /** Checks the typed corners: each a number of degrees in range, west of east, south of north, not too large. */
 export function checkImageCorners(raw: Readonly<Record<CornerField, string | number | null | undefined>>): CornersCheck {
-  const errors: Partial<Record<CornerField, string>> = {};
+  const errors: Partial<Record<CornerField, CornerProblem>> = {};
   const values: Partial<Record<CornerField, number>> = {};
   for (const field of CORNER_FIELDS) {
     const { low, high, word } = LIMITS[field];
     const text = typeof raw[field] === 'string' ? (raw[field] as string).trim() : raw[field];
     if (text === '' || text === null || text === undefined) {
-      errors[field] = `Type the ${field} edge in degrees (${word.toLowerCase()})`;
+      errors[field] = { key: `siteMap.corners.missing.${field}` };
       continue;
     }
     const value = readNumber(text);
     if (value === null) {
-      errors[field] = `${word} in decimal degrees, with a point, e.g. ${field === 'west' || field === 'east' ? '33.4518' : '-4.0512'}`;
+      errors[field] = { key: `siteMap.corners.notANumber.${word}` };
     } else if (value < low || value > high) {
-      errors[field] = `${word} must be between ${low}° and ${high}°`;
+      errors[field] = { key: `siteMap.corners.outOfRange.${word}`, params: { low, high } };
     } else {
       values[field] = value;
     }
@@ -63,16 +69,16 @@ export function checkImageCorners(raw: Readonly<Record<CornerField, string | num
   const { west, south, east, north } = values;
   if (west !== undefined && east !== undefined) {
     if (!(west < east)) {
-      errors.east = 'The east edge must be greater than the west edge (east of it)';
+      errors.east = { key: 'siteMap.corners.eastOfWest' };
     } else if (east - west > MAX_IMAGE_SPAN_DEG) {
-      errors.east = `The image may span at most ${MAX_IMAGE_SPAN_DEG}° from west to east; check the corners`;
+      errors.east = { key: 'siteMap.corners.spanWestEast', params: { span: MAX_IMAGE_SPAN_DEG } };
     }
   }
   if (south !== undefined && north !== undefined) {
     if (!(south < north)) {
-      errors.north = 'The north edge must be greater than the south edge (south latitudes are negative)';
+      errors.north = { key: 'siteMap.corners.northOfSouth' };
     } else if (north - south > MAX_IMAGE_SPAN_DEG) {
-      errors.north = `The image may span at most ${MAX_IMAGE_SPAN_DEG}° from south to north; check the corners`;
+      errors.north = { key: 'siteMap.corners.spanSouthNorth', params: { span: MAX_IMAGE_SPAN_DEG } };
     }
   }
   if (Object.keys(errors).length > 0) {

@@ -1,3 +1,5 @@
+import { TestBed } from '@angular/core/testing';
+import { TranslocoService } from '@jsverse/transloco';
 import { LOSS_FILL, PAYING_FILLS, classOfNetValue, formatMoney, netValueClassLabel, netValueClasses, roundStep } from './net-value-classes';
 
 describe('roundStep', () => {
@@ -28,11 +30,29 @@ describe('netValueClasses', () => {
 });
 
 describe('labels', () => {
+  const translate = () => {
+    const transloco = TestBed.inject(TranslocoService);
+    return (key: string, params?: Record<string, unknown>) => transloco.translate(key, params);
+  };
+
   it('says each class in whole money with the currency', () => {
     const [loss, low, , top] = netValueClasses([-1, 500, 1500, 3000]);
-    expect(netValueClassLabel(loss, 'USD')).toBe('loses money: below 0 USD');
-    expect(netValueClassLabel(low, 'USD')).toBe('0 USD – 1,000 USD');
-    expect(netValueClassLabel(top, 'USD')).toBe('2,000 USD and more');
+    expect(netValueClassLabel(loss, 'USD', translate())).toBe('loses money: below 0 USD');
+    expect(netValueClassLabel(low, 'USD', translate())).toBe('0 USD – 1,000 USD');
+    expect(netValueClassLabel(top, 'USD', translate())).toBe('2,000 USD and more');
     expect(formatMoney(-1249.6, 'TZS')).toBe('-1,250 TZS');
+    expect(formatMoney(-0.4, 'TZS')).toBe('0 TZS');
+  });
+
+  it('says them in French with French digit grouping, and in Kiswahili', () => {
+    const [loss, low, , top] = netValueClasses([-1, 500, 1500, 3000]);
+    TestBed.inject(TranslocoService).setActiveLang('fr');
+    // CLDR fr: a narrow no-break space (U+202F) between thousands.
+    expect(formatMoney(-1249.6, 'TZS', 'fr')).toBe('-1\u202f250 TZS');
+    expect(netValueClassLabel(top, 'USD', translate(), 'fr')).toBe('2\u202f000 USD et plus');
+    expect(netValueClassLabel(loss, 'USD', translate(), 'fr')).toBe('perte\u00a0: moins de 0 USD');
+    TestBed.inject(TranslocoService).setActiveLang('sw');
+    expect(netValueClassLabel(low, 'USD', translate(), 'sw')).toBe('0 USD – 1,000 USD');
+    expect(netValueClassLabel(top, 'USD', translate(), 'sw')).toBe('2,000 USD na zaidi');
   });
 });

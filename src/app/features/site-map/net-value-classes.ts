@@ -4,6 +4,10 @@
  * money, and up to three equal classes of round width for those that pay, so a legend reads in
  * whole amounts of the site's currency ("0 – 5,000 USD").
  */
+import { formatNumber } from '@angular/common';
+
+/** Translates a key with parameters (TranslocoService.translate). */
+export type Translate = (key: string, params?: Record<string, unknown>) => string;
 
 /** One class: its bounds (`upTo` null for the open top class), fill colour and how many piles fall in it. */
 export interface NetValueClass {
@@ -57,15 +61,22 @@ export function classOfNetValue(value: number, classes: readonly NetValueClass[]
   return classes.find((entry) => (entry.from === null || value >= entry.from) && (entry.upTo === null || value < entry.upTo)) ?? null;
 }
 
-/** A whole amount of money with thousands separators and the currency code, e.g. "-1,250 USD". */
-export function formatMoney(value: number, currency: string): string {
-  return `${Math.round(value).toLocaleString('en-US')} ${currency}`;
+/**
+ * A whole amount of money with the locale's thousands separators and the currency code, e.g.
+ * "-1,250 USD" in English, "-1 250 USD" in French.
+ */
+export function formatMoney(value: number, currency: string, locale = 'en'): string {
+  // `|| 0`: a rounded -0.4 is no loss, so no minus sign.
+  return `${formatNumber(Math.round(value) || 0, locale, '1.0-0')} ${currency}`;
 }
 
-/** The legend words of a class, in money. */
-export function netValueClassLabel(entry: NetValueClass, currency: string): string {
+/** The legend words of a class, in money, in the reader's language. */
+export function netValueClassLabel(entry: NetValueClass, currency: string, translate: Translate, locale = 'en'): string {
   if (entry.isLoss) {
-    return `loses money: below ${formatMoney(0, currency)}`;
+    return translate('siteMap.netValue.loss', { amount: formatMoney(0, currency, locale) });
   }
-  return entry.upTo === null ? `${formatMoney(entry.from ?? 0, currency)} and more` : `${formatMoney(entry.from ?? 0, currency)} – ${formatMoney(entry.upTo, currency)}`;
+  const from = formatMoney(entry.from ?? 0, currency, locale);
+  return entry.upTo === null
+    ? translate('siteMap.netValue.andMore', { from })
+    : translate('siteMap.netValue.between', { from, upTo: formatMoney(entry.upTo, currency, locale) });
 }

@@ -63,6 +63,7 @@ export class SiteMapStore {
   private readonly http = inject(HttpClient);
   readonly review = signal<SiteReview | null>(null);
   readonly isLoading = signal(false);
+  /** The translation key of what went wrong loading the site, or null. */
   readonly problem = signal<string | null>(null);
 
   readonly shortlist = signal<MapShortlist | null>(null);
@@ -90,20 +91,20 @@ export class SiteMapStore {
       const review = await this.fetchReview(siteId);
       if (ticket === this.loadTicket) this.review.set(review);
     } catch {
-      if (ticket === this.loadTicket) this.problem.set('The site could not be loaded. Check the connection and try again.');
+      if (ticket === this.loadTicket) this.problem.set('siteMap.loadProblem');
     } finally {
       if (ticket === this.loadTicket) this.isLoading.set(false);
     }
   }
 
-  /** The site's shortlist (net value per pile from the engine on the server); an error message when it cannot be had. */
+  /** The site's shortlist (net value per pile from the engine on the server); the server's reason when it cannot be had. */
   async loadShortlist(siteId: string): Promise<string | null> {
     try {
       this.shortlist.set(await firstValueFrom(this.http.get<MapShortlist>('/api/shortlist', { params: new HttpParams().set('site', siteId) })));
       return null;
     } catch (error) {
       this.shortlist.set(null);
-      return `Net values could not be loaded: ${toApiProblem(error).message}`;
+      return toApiProblem(error).message;
     }
   }
 

@@ -37,31 +37,47 @@ export function addCoordinateGrid(map: L.Map): () => void {
   };
 }
 
-/** A north arrow (the map is always north-up). */
-export function addNorthArrow(map: L.Map): void {
+/** The words of the north arrow in the reader's language: its spoken label and the letter drawn under it. */
+export interface NorthArrowWords {
+  readonly label: string;
+  readonly letter: string;
+}
+
+/** Text as HTML, for the few words drawn into Leaflet's own markup. */
+function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (character) => `&#${character.charCodeAt(0)};`);
+}
+
+/** A north arrow (the map is always north-up); remove the control it answers and add another to change its words. */
+export function addNorthArrow(map: L.Map, words: NorthArrowWords): L.Control {
   const NorthArrow = L.Control.extend({
     onAdd: () => {
       const element = L.DomUtil.create('div', 'hs-north-arrow');
       element.setAttribute('role', 'img');
-      element.setAttribute('aria-label', 'North is up');
+      element.setAttribute('aria-label', words.label);
       element.innerHTML =
-        '<svg viewBox="0 0 32 44" width="32" height="44" aria-hidden="true"><path d="M16 2 L27 30 L16 24 L5 30 Z" fill="#1d2430"/><path d="M16 2 L16 24 L5 30 Z" fill="#ffffff" stroke="#1d2430" stroke-width="1.5"/><text x="16" y="42" text-anchor="middle" font-size="12" font-weight="700" fill="#1d2430">N</text></svg>';
+        '<svg viewBox="0 0 32 44" width="32" height="44" aria-hidden="true"><path d="M16 2 L27 30 L16 24 L5 30 Z" fill="#1d2430"/><path d="M16 2 L16 24 L5 30 Z" fill="#ffffff" stroke="#1d2430" stroke-width="1.5"/>' +
+        `<text x="16" y="42" text-anchor="middle" font-size="12" font-weight="700" fill="#1d2430">${escapeHtml(words.letter)}</text></svg>`;
       return element;
     },
   });
-  new NorthArrow({ position: 'topright' }).addTo(map);
+  return new NorthArrow({ position: 'topright' }).addTo(map);
 }
 
-/** The marker shape of each sample type: shape and letter both differ, so colour is never the only cue. */
-export const SAMPLE_SYMBOLS: Record<string, { readonly letter: string; readonly shape: string; readonly label: string }> = {
-  routine: { letter: 'R', shape: 'circle', label: 'Routine' },
-  duplicate: { letter: 'D', shape: 'diamond', label: 'Field duplicate' },
-  blank: { letter: 'B', shape: 'square', label: 'Blank' },
-  standard: { letter: 'S', shape: 'triangle', label: 'Reference standard' },
+/**
+ * The marker shape of each sample type: shape and letter both differ, so colour is never the only
+ * cue. The letter is the first of the type's name in the reader's language (a translation key), the
+ * name is the shared sample-type term.
+ */
+export const SAMPLE_SYMBOLS: Record<string, { readonly shape: string; readonly letterKey: string; readonly labelKey: string }> = {
+  routine: { shape: 'circle', letterKey: 'siteMap.symbols.routineLetter', labelKey: 'common.terms.sampleType.routine' },
+  duplicate: { shape: 'diamond', letterKey: 'siteMap.symbols.duplicateLetter', labelKey: 'common.terms.sampleType.duplicate' },
+  blank: { shape: 'square', letterKey: 'siteMap.symbols.blankLetter', labelKey: 'common.terms.sampleType.blank' },
+  standard: { shape: 'triangle', letterKey: 'siteMap.symbols.standardLetter', labelKey: 'common.terms.sampleType.standard' },
 };
 
-/** A small marker icon for a QA/QC sample: its shape with its letter. */
-export function sampleIcon(sampleType: string): L.DivIcon {
+/** A small marker icon for a QA/QC sample: its shape with its letter (already in the reader's language). */
+export function sampleIcon(sampleType: string, letter: string): L.DivIcon {
   const symbol = SAMPLE_SYMBOLS[sampleType] ?? SAMPLE_SYMBOLS['routine'];
-  return L.divIcon({ className: `hs-sample hs-sample-${symbol.shape}`, html: `<span>${symbol.letter}</span>`, iconSize: [18, 18] });
+  return L.divIcon({ className: `hs-sample hs-sample-${symbol.shape}`, html: `<span>${escapeHtml(letter)}</span>`, iconSize: [18, 18] });
 }

@@ -1,9 +1,12 @@
-import { DecimalPipe } from '@angular/common';
+import { formatNumber } from '@angular/common';
 import { Component, inject, input, output, signal } from '@angular/core';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { toApiProblem } from '../../../../core/http/api-error';
-import { CORNER_FIELDS, checkImageCorners, type CornerField } from '../../image-corners';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import { CORNER_FIELDS, checkImageCorners, type CornerField, type CornerProblem } from '../../image-corners';
 import { SiteMapStore, type MapImage, type UploadCorners } from '../../site-map.store';
 
 /** The image types the server takes (DESIGN §5 photos; the same list for site images). */
@@ -11,22 +14,20 @@ const ACCEPTED_TYPES = ['image/jpeg', 'image/png', 'image/webp'];
 /** The server's limit for one site image, in bytes. */
 const MAX_BYTES = 16 * 1024 * 1024;
 
-const CORNER_HINTS: Record<CornerField, string> = {
-  north: 'latitude of the top edge',
-  west: 'longitude of the left edge',
-  east: 'longitude of the right edge',
-  south: 'latitude of the bottom edge',
-};
+/** What is wrong with a field: our own words (a key and figures) or the server's words as it sent them. */
+type FieldProblem = CornerProblem | { readonly text: string };
 
 /** Admins: upload the georeferenced site picture with its four edges, checked here before it is sent. */
 @Component({
   selector: 'hs-site-image-form',
-  imports: [DecimalPipe, MatButtonModule, MatIconModule],
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES, MatButtonModule, MatIconModule],
   templateUrl: './site-image-form.html',
   styleUrl: './site-image-form.scss',
 })
 export class SiteImageForm {
   private readonly store = inject(SiteMapStore);
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
   /** The site the picture belongs to. */
   readonly siteId = input.required<string>();
   /** The picture stored now, whose corners fill the form. */
@@ -37,13 +38,22 @@ export class SiteImageForm {
   readonly uploaded = output<MapImage>();
 
   protected readonly fields = CORNER_FIELDS;
-  protected readonly hints = CORNER_HINTS;
   protected readonly values = signal<Record<CornerField, string>>({ north: '', west: '', east: '', south: '' });
-  protected readonly errors = signal<Partial<Record<CornerField | 'file', string>>>({});
+  protected readonly errors = signal<Partial<Record<CornerField | 'file', FieldProblem>>>({});
   protected readonly file = signal<File | null>(null);
   protected readonly isSending = signal(false);
+  /** The server's refusal, in its words. */
   protected readonly problem = signal<string | null>(null);
+  /** The translation key of what was saved. */
   protected readonly done = signal<string | null>(null);
+
+  /** A field's problem in the active language, its figures in the locale's digits. */
+  protected say(problem: FieldProblem): string {
+    if ('text' in problem) return problem.text;
+    const locale = this.language.locale();
+    const params = Object.fromEntries(Object.entries(problem.params ?? {}).map(([name, value]) => [name, formatNumber(value, locale, '1.0-6')]));
+    return this.transloco.translate(problem.key, params);
+  }
 
   /** Fills the corners from the stored picture, or from the map's view. */
   protected fillFrom(box: UploadCorners | null): void {
@@ -70,7 +80,7 @@ export class SiteImageForm {
     this.done.set(null);
     const file = this.file();
     const check = checkImageCorners(this.values());
-    const fileError = file ? this.fileProblem(file) : this.current() ? undefined : 'Choose the site picture (JPEG, PNG or WebP)';
+    const fileError = file ? this.fileProblem(file) : this.current() ? undefined : { key: 'siteMap.imageForm.fileMissing' };
     const errors = { ...(check.ok ? {} : check.errors), ...(fileError ? { file: fileError } : {}) };
     this.errors.set(errors);
     if (!check.ok || fileError) {
@@ -79,14 +89,14 @@ export class SiteImageForm {
     this.isSending.set(true);
     try {
       const image = await this.store.uploadImage(this.siteId(), file, check.value);
-      this.done.set(file ? 'Site picture saved; it is drawn under the piles.' : 'Corners saved; the picture is moved.');
+      this.done.set(file ? 'siteMap.imageForm.savedPicture' : 'siteMap.imageForm.savedCorners');
       this.uploaded.emit(image);
     } catch (error) {
       const answer = toApiProblem(error);
-      const byField: Partial<Record<CornerField, string>> = {};
+      const byField: Partial<Record<CornerField, FieldProblem>> = {};
       for (const detail of answer.details) {
         const field = CORNER_FIELDS.find((name) => detail.path === name || detail.path.endsWith(`.${name}`));
-        if (field) byField[field] = detail.message;
+        if (field) byField[field] = { text: detail.message };
       }
       this.errors.set(byField);
       this.problem.set(answer.message);
@@ -95,9 +105,9 @@ export class SiteImageForm {
     }
   }
 
-  private fileProblem(file: File): string | undefined {
-    if (!ACCEPTED_TYPES.includes(file.type)) return 'The picture must be a JPEG, PNG or WebP image';
-    if (file.size > MAX_BYTES) return `The picture may be at most ${MAX_BYTES / 1048576} MB`;
+  private fileProblem(file: File): CornerProblem | undefined {
+    if (!ACCEPTED_TYPES.includes(file.type)) return { key: 'siteMap.imageForm.fileType' };
+    if (file.size > MAX_BYTES) return { key: 'siteMap.imageForm.fileSize', params: { megabytes: MAX_BYTES / 1048576 } };
     return undefined;
   }
 }

@@ -1,13 +1,15 @@
-import { DecimalPipe } from '@angular/common';
-import { Component, ElementRef, ViewEncapsulation, computed, inject, signal, viewChild, type AfterViewInit, type OnDestroy } from '@angular/core';
+import { formatNumber } from '@angular/common';
+import { Component, ElementRef, ViewEncapsulation, computed, effect, inject, signal, untracked, viewChild, type AfterViewInit, type OnDestroy } from '@angular/core';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { ActivatedRoute, RouterLink } from '@angular/router';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import * as L from 'leaflet';
 import { idwGrid, seededRandom, type GridSpec } from '../../../../../../shared/engine';
-import { PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
 import { AuthSession } from '../../../../core/auth/auth-session';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { rampCss } from '../../../../shared/ui/colour-ramp/colour-ramp';
 import { GradeLegend } from '../../../../shared/ui/grade-legend/grade-legend';
 import { openingSite, rememberSiteId, rememberedSiteId } from '../../../../core/site-choice/remembered-site';
@@ -29,6 +31,9 @@ const FALLBACK_CENTRE: L.LatLngTuple = [-4.0512, 33.4518];
 // Padding around the samples' box, as a fraction of its size, so edge samples are not cut off.
 const GRID_PADDING = 0.05;
 
+/** A message of the page: our own words by key, or words that came from elsewhere (the engine) as they are. */
+type PageProblem = { readonly key: string; readonly text?: undefined } | { readonly key?: undefined; readonly text: string };
+
 /** What the heat map last drew. */
 interface HeatmapState {
   readonly minValue: number;
@@ -42,7 +47,7 @@ interface HeatmapState {
 /** `Site map`: piles as footprints shaded by grade or net value, samples by type, the grade heat map, and (admins) the site picture. */
 @Component({
   selector: 'hs-site-map-page',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, GradeLegend, SiteImageForm],
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES, RouterLink, MatButtonModule, MatButtonToggleModule, MatIconModule, GradeLegend, SiteImageForm],
   templateUrl: './site-map-page.html',
   styleUrl: './site-map-page.scss',
   // Leaflet builds its own DOM, which emulated encapsulation would not reach.
@@ -52,9 +57,11 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   protected readonly store = inject(SiteMapStore);
   private readonly session = inject(AuthSession);
   private readonly route = inject(ActivatedRoute);
+  private readonly transloco = inject(TranslocoService);
+  protected readonly language = inject(AppLanguage);
   private readonly mapElement = viewChild.required<ElementRef<HTMLDivElement>>('map');
 
-  protected readonly statement = PLANNING_ESTIMATE_STATEMENT;
+  protected readonly gridSide = HEATMAP_GRID_SIDE;
   protected readonly symbols = Object.entries(SAMPLE_SYMBOLS).map(([type, symbol]) => ({ type, ...symbol }));
   protected readonly sites = computed(() => this.session.user()?.sites ?? []);
   protected readonly siteId = signal<string | null>(null);
@@ -62,8 +69,9 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   protected readonly isHeatmapShown = signal(false);
   protected readonly isHeatmapBusy = signal(false);
   protected readonly heatmap = signal<HeatmapState | null>(null);
-  protected readonly heatmapProblem = signal<string | null>(null);
+  protected readonly heatmapProblem = signal<PageProblem | null>(null);
   protected readonly selectedPile = signal<MapPile | null>(null);
+  /** Why the net values could not be had (the server's words), or null. */
   protected readonly shadingProblem = signal<string | null>(null);
   protected readonly isShortlistLoading = signal(false);
   protected readonly canSeeNetValue = computed(() => NET_VALUE_READERS.includes(this.session.role() ?? ''));
@@ -79,8 +87,9 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   protected readonly valueClasses = computed(() => {
     const rows = [...(this.shortlistRows()?.values() ?? [])];
     const currency = this.currency();
+    const locale = this.language.locale();
     const classes = netValueClasses(rows.flatMap((row) => (row.rank !== null && row.netValue !== null ? [row.netValue] : [])));
-    return classes.map((entry) => ({ ...entry, label: netValueClassLabel(entry, currency) }));
+    return classes.map((entry) => ({ ...entry, label: netValueClassLabel(entry, currency, this.say, locale) }));
   });
   protected readonly unrankedCount = computed(() => [...(this.shortlistRows()?.values() ?? [])].filter((row) => row.rank === null || row.netValue === null).length);
   protected readonly selectedValue = computed<MapShortlistRow | null>(() => {
@@ -98,6 +107,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   });
 
   private map: L.Map | null = null;
+  private northArrow: L.Control | null = null;
   /** Counts site openings, so a slow answer for a site no longer wanted never replaces the one the user picked. */
   private siteOpening = 0;
   // Piles draw as SVG (the rest of the map on canvas) so a hatch pattern can fill piles with no grade or rank.
@@ -107,12 +117,35 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
   private removeGrid: (() => void) | null = null;
   private objectUrls: string[] = [];
 
+  /** Translates a key (the words Leaflet draws are made in TypeScript). */
+  private readonly say = (key: string, params?: Record<string, unknown>): string => this.transloco.translate(key, params);
+
+  constructor() {
+    // The words drawn on the map (pile labels, sample tooltips and letters, the north arrow) are
+    // Leaflet's DOM, not the template's: draw them again when the language changes.
+    effect(() => {
+      this.language.active();
+      untracked(() => this.redrawWords());
+    });
+  }
+
+  private redrawWords(): void {
+    const map = this.map;
+    if (!map) {
+      return;
+    }
+    this.northArrow?.remove();
+    this.northArrow = addNorthArrow(map, { label: this.say('siteMap.northArrow.label'), letter: this.say('siteMap.northArrow.letter') });
+    this.drawPiles();
+    this.drawSamples();
+  }
+
   async ngAfterViewInit(): Promise<void> {
     L.Icon.Default.imagePath = 'leaflet/';
     const map = L.map(this.mapElement().nativeElement, { zoomControl: true, preferCanvas: true, attributionControl: false }).setView(FALLBACK_CENTRE, 17);
     this.map = map;
     L.control.scale({ metric: true, imperial: false, position: 'bottomright' }).addTo(map);
-    addNorthArrow(map);
+    this.northArrow = addNorthArrow(map, { label: this.say('siteMap.northArrow.label'), letter: this.say('siteMap.northArrow.letter') });
     this.removeGrid = addCoordinateGrid(map);
     this.layers.piles.addTo(map);
     this.layers.samples.addTo(map);
@@ -198,6 +231,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
       return;
     }
     this.isShortlistLoading.set(true);
+    // The store answers the server's reason; the page says it in a sentence of the reader's language.
     this.shadingProblem.set(await this.store.loadShortlist(siteId));
     this.isShortlistLoading.set(false);
   }
@@ -222,7 +256,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     const map = this.map;
     const points = this.syntheticCount > 0 ? syntheticPoints(this.syntheticCount) : this.gradePoints();
     if (!map || !points) {
-      this.heatmapProblem.set('No sample has a grade yet: the heat map needs graded samples with a location.');
+      this.heatmapProblem.set({ key: 'siteMap.heatmap.noGrades' });
       return;
     }
     const started = performance.now();
@@ -233,7 +267,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     const answer = this.isMainThreadBaseline ? await computeOnPage(points, grid) : await this.worker().compute(points, grid);
     if (!answer.ok) {
       this.isHeatmapBusy.set(false);
-      this.heatmapProblem.set(answer.errors.join(' '));
+      this.heatmapProblem.set({ text: answer.errors.join(' ') });
       return;
     }
     const url = URL.createObjectURL(answer.png);
@@ -290,17 +324,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
       return;
     }
     this.drawPiles();
-    this.layers.samples.clearLayers();
-    for (const sample of review.samples) {
-      if (!sample.location) continue;
-      const [lon, lat] = sample.location.coordinates;
-      const title = `${sample.code} · ${SAMPLE_SYMBOLS[sample.sampleType]?.label ?? sample.sampleType}${sample.gradeGpt === null ? '' : ` · ${sample.gradeGpt.toFixed(2)} g/t`}`;
-      const marker = sample.sampleType === 'routine'
-        ? L.circleMarker([lat, lon], { radius: 4, color: '#1d2430', weight: 1, fillColor: '#ffffff', fillOpacity: 1 })
-        : L.marker([lat, lon], { icon: sampleIcon(sample.sampleType), keyboard: false });
-      marker.bindTooltip(title);
-      this.layers.samples.addLayer(marker);
-    }
+    this.drawSamples();
     const extent = L.latLngBounds([]);
     this.layers.piles.eachLayer((layer) => extent.extend((layer as L.GeoJSON).getBounds()));
     this.layers.samples.eachLayer((layer) => extent.extend((layer as L.Marker).getLatLng()));
@@ -308,6 +332,30 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
       map.fitBounds(extent.pad(0.15), { maxZoom: 19 });
     }
     await this.drawImage();
+  }
+
+  /** Sample markers by type (shape and letter) with a tooltip of code, type and grade, in the reader's language. */
+  private drawSamples(): void {
+    const review = this.store.review();
+    this.layers.samples.clearLayers();
+    if (!review) {
+      return;
+    }
+    const locale = this.language.locale();
+    for (const sample of review.samples) {
+      if (!sample.location) continue;
+      const [lon, lat] = sample.location.coordinates;
+      const symbol = SAMPLE_SYMBOLS[sample.sampleType];
+      const type = symbol ? this.say(symbol.labelKey) : sample.sampleType;
+      const title = sample.gradeGpt === null
+        ? this.say('siteMap.tooltip.sample', { code: sample.code, type })
+        : this.say('siteMap.tooltip.sampleGraded', { code: sample.code, type, gpt: formatNumber(sample.gradeGpt, locale, '1.2-2') });
+      const marker = sample.sampleType === 'routine'
+        ? L.circleMarker([lat, lon], { radius: 4, color: '#1d2430', weight: 1, fillColor: '#ffffff', fillOpacity: 1 })
+        : L.marker([lat, lon], { icon: sampleIcon(sample.sampleType, this.say((symbol ?? SAMPLE_SYMBOLS['routine']).letterKey)), keyboard: false });
+      marker.bindTooltip(title);
+      this.layers.samples.addLayer(marker);
+    }
   }
 
   /** Pile footprints, filled by the shading chosen; the label always says the figure in words. */
@@ -322,6 +370,7 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
     const classes = this.valueClasses();
     const currency = this.currency();
     const range = this.pileRange();
+    const locale = this.language.locale();
     for (const row of review.piles) {
       if (!row.pile.footprint) continue;
       let fill: string | null;
@@ -330,12 +379,18 @@ export default class SiteMapPage implements AfterViewInit, OnDestroy {
         const line = values?.get(row.pile.id);
         const hasRank = line !== undefined && line.rank !== null && line.netValue !== null;
         fill = hasRank ? classOfNetValue(line.netValue as number, classes)?.fill ?? null : null;
-        label = !values ? row.pile.code : hasRank ? `${row.pile.code} · #${line.rank} · ${formatMoney(line.netValue as number, currency)}` : `${row.pile.code} · not ranked (thin data)`;
+        label = !values
+          ? row.pile.code
+          : hasRank
+            ? this.say('siteMap.labels.ranked', { code: row.pile.code, rank: line.rank, value: formatMoney(line.netValue as number, currency, locale) })
+            : this.say('siteMap.labels.notRanked', { code: row.pile.code });
       } else {
         const meanGpt = row.estimate?.grade?.meanGpt;
         const position = meanGpt === undefined || !range ? null : range.max > range.min ? (meanGpt - range.min) / (range.max - range.min) : 0.5;
         fill = position === null ? null : rampCss(position);
-        label = meanGpt === undefined ? `${row.pile.code} · no grade yet` : `${row.pile.code} · ${meanGpt.toFixed(2)} g/t`;
+        label = meanGpt === undefined
+          ? this.say('siteMap.labels.noGrade', { code: row.pile.code })
+          : this.say('siteMap.labels.grade', { code: row.pile.code, gpt: formatNumber(meanGpt, locale, '1.2-2') });
       }
       const polygon = L.geoJSON(row.pile.footprint, {
         renderer: this.pileRenderer,
