@@ -5,8 +5,10 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
+import { problemText, type ProblemKeys } from '../../../sign-in/problem-text';
 import { LabelsStore, type PrintedSheet } from '../../labels.store';
 
 /** Labels on one A4 sheet (3 across, 8 down); the server lays them out the same way. */
@@ -14,43 +16,55 @@ const LABELS_PER_SHEET = 24;
 /** The server's limit per download (ten sheets). */
 const MOST_LABELS = 240;
 
+/** Why a sheet was refused, in words for this screen; other refusals keep the server's words. */
+const DOWNLOAD_PROBLEMS: ProblemKeys = {
+  offline: 'labels.problems.offline',
+  not_found: 'labels.problems.noSuchSite',
+  conflict: 'labels.problems.usedUp',
+  forbidden: 'labels.problems.forbidden',
+  validation_failed: 'labels.problems.count',
+  unauthenticated: 'labels.problems.signIn',
+  token_expired: 'labels.problems.signIn',
+  internal: 'labels.problems.internal',
+};
+
 /** Labels: print a sheet of pre-numbered sample labels (QR code and large code) to stick on bags. */
 @Component({
   selector: 'hs-labels-page',
-  imports: [FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1>Sample labels</h1>
-      <p class="hs-muted">Print labels before going out, stick one on each bag, and scan it in Capture when you take the sample. Every sheet carries new codes that no other sheet or phone will use.</p>
+      <h1>{{ 'labels.page.title' | transloco }}</h1>
+      <p class="hs-muted">{{ 'labels.page.intro' | transloco }}</p>
       <form class="form" (submit)="$event.preventDefault(); download()">
         <mat-form-field>
-          <mat-label>Site</mat-label>
+          <mat-label>{{ 'labels.page.site' | transloco }}</mat-label>
           <mat-select [ngModel]="siteId()" (ngModelChange)="siteId.set($event)" name="site" data-testid="labels-site">
             @for (site of sites(); track site.id) { <mat-option [value]="site.id">{{ site.name }} ({{ site.code }})</mat-option> }
           </mat-select>
         </mat-form-field>
         <mat-form-field>
-          <mat-label>Number of labels</mat-label>
+          <mat-label>{{ 'labels.page.count' | transloco }}</mat-label>
           <input matInput type="number" inputmode="numeric" min="1" [max]="mostLabels" name="count" data-testid="labels-count"
             [ngModel]="count()" (ngModelChange)="count.set(+$event)" />
-          <mat-hint>{{ sheets() }} A4 {{ sheets() === 1 ? 'sheet' : 'sheets' }} of 24 (3 × 8); at most {{ mostLabels }}</mat-hint>
+          <mat-hint>{{ (sheets() === 1 ? 'labels.page.sheetsOne' : 'labels.page.sheetsOther') | transloco: { sheets: sheets(), perSheet: perSheet, most: mostLabels } }}</mat-hint>
         </mat-form-field>
-        <div class="presets" role="group" aria-label="Quick counts">
+        <div class="presets" role="group" [attr.aria-label]="'labels.page.quickCounts' | transloco">
           @for (preset of presets; track preset) {
             <button mat-stroked-button type="button" (click)="count.set(preset)" [attr.aria-pressed]="count() === preset">{{ preset }}</button>
           }
         </div>
         <button mat-flat-button type="submit" class="go" [disabled]="!canDownload()" data-testid="labels-download">
-          <mat-icon>download</mat-icon> {{ isBusy() ? 'Preparing…' : 'Download labels (PDF)' }}
+          <mat-icon>download</mat-icon> {{ (isBusy() ? 'labels.page.preparing' : 'labels.page.download') | transloco }}
         </button>
       </form>
       @if (problem(); as problem) { <p class="problem" role="alert">{{ problem }}</p> }
       @if (printed(); as printed) {
         <p class="printed" role="status" data-testid="labels-printed">
-          <mat-icon>check_circle</mat-icon> {{ printed.count }} labels reserved: {{ printed.firstCode }} to {{ printed.lastCode }}. Print at 100 % (no fit to page).
+          <mat-icon>check_circle</mat-icon> {{ 'labels.page.printed' | transloco: { count: printed.count, first: printed.firstCode, last: printed.lastCode } }}
         </p>
       }
-      <p class="hs-muted">Downloading needs a connection: the server reserves the codes so two sheets never repeat. Codes of a sheet you lose are simply never used.</p>
+      <p class="hs-muted">{{ 'labels.page.needsConnection' | transloco }}</p>
     </section>
   `,
   styles: `
@@ -64,8 +78,10 @@ const MOST_LABELS = 240;
 export default class LabelsPage {
   private readonly store = inject(LabelsStore);
   private readonly session = inject(AuthSession);
+  private readonly transloco = inject(TranslocoService);
 
   protected readonly mostLabels = MOST_LABELS;
+  protected readonly perSheet = LABELS_PER_SHEET;
   protected readonly presets = [24, 48, 96] as const;
   protected readonly sites = computed(() => this.session.user()?.sites ?? []);
   protected readonly siteId = signal<string | null>(this.session.user()?.sites[0]?.id ?? null);
@@ -85,7 +101,7 @@ export default class LabelsPage {
     try {
       this.printed.set(await this.store.downloadSheet(siteId, this.count()));
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), DOWNLOAD_PROBLEMS, { most: MOST_LABELS }));
     } finally {
       this.isBusy.set(false);
     }
