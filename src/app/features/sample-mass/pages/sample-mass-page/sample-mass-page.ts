@@ -1,48 +1,65 @@
-import { DecimalPipe } from '@angular/common';
-import { Component, computed, signal } from '@angular/core';
+import { Component, computed, inject, signal } from '@angular/core';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { meshToApertureUm, minimumSampleMass } from '../../../../../../shared/engine';
+import { meshToApertureUm, minimumSampleMass, type EngineError } from '../../../../../../shared/engine';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+
+/** The inputs the engine may refuse, by the name their labels give them. */
+const FIELD_NAMES: Readonly<Record<string, string>> = {
+  topSizeMm: 'sampleMass.fieldNames.topSize',
+  mesh: 'sampleMass.fieldNames.mesh',
+  liberationSizeMm: 'sampleMass.fieldNames.liberationSize',
+  gradeGpt: 'sampleMass.fieldNames.expectedGrade',
+  targetRelativeSd: 'sampleMass.fieldNames.targetError',
+};
+
+/** The engine's number rules, by its error codes. */
+const NUMBER_RULES: Partial<Record<EngineError['code'], string>> = {
+  'not-a-number': 'sampleMass.errors.notANumber',
+  negative: 'sampleMass.errors.negative',
+  'not-positive': 'sampleMass.errors.notPositive',
+};
 
 /** The sample-mass advisor: Gy's minimum sample mass for a material, with every factor shown. */
 @Component({
   selector: 'hs-sample-mass-page',
-  imports: [DecimalPipe, MatFormFieldModule, MatInputModule],
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES, MatFormFieldModule, MatInputModule],
   template: `
     <section class="hs-page">
-      <h1>Sample mass advisor</h1>
-      <p class="hs-muted">How much material a sample must weigh so that the grain-by-grain luck of which gold particles fall into it stays within the error you accept.</p>
+      <h1>{{ 'sampleMass.title' | transloco }}</h1>
+      <p class="hs-muted">{{ 'sampleMass.intro' | transloco }}</p>
       <form class="form" (submit)="$event.preventDefault()">
         <fieldset>
-          <legend>Top size (95 % passing)</legend>
-          <label class="unit"><input type="radio" name="unit" [checked]="topUnit() === 'mm'" (change)="topUnit.set('mm')" /> mm</label>
-          <label class="unit"><input type="radio" name="unit" [checked]="topUnit() === 'mesh'" (change)="topUnit.set('mesh')" /> mesh (ASTM E11)</label>
-          <mat-form-field><mat-label>{{ topUnit() === 'mm' ? 'Top size, mm' : 'Top size, mesh' }}</mat-label>
+          <legend>{{ 'sampleMass.topSizeLegend' | transloco }}</legend>
+          <label class="unit"><input type="radio" name="unit" [checked]="topUnit() === 'mm'" (change)="topUnit.set('mm')" /> {{ 'sampleMass.unitMm' | transloco }}</label>
+          <label class="unit"><input type="radio" name="unit" [checked]="topUnit() === 'mesh'" (change)="topUnit.set('mesh')" /> {{ 'sampleMass.unitMesh' | transloco }}</label>
+          <mat-form-field><mat-label>{{ (topUnit() === 'mm' ? 'sampleMass.topSizeMm' : 'sampleMass.topSizeMesh') | transloco }}</mat-label>
             <input matInput type="number" inputmode="decimal" [value]="topSize()" (input)="topSize.set(+$any($event.target).value)" /></mat-form-field>
         </fieldset>
-        <mat-form-field><mat-label>Gold liberation size, mm</mat-label><input matInput type="number" inputmode="decimal" [value]="liberationSizeMm()" (input)="liberationSizeMm.set(+$any($event.target).value)" /></mat-form-field>
-        <mat-form-field><mat-label>Expected grade, g/t</mat-label><input matInput type="number" inputmode="decimal" [value]="gradeGpt()" (input)="gradeGpt.set(+$any($event.target).value)" /></mat-form-field>
-        <mat-form-field><mat-label>Target error, % (1 SD)</mat-label><input matInput type="number" inputmode="decimal" [value]="targetPct()" (input)="targetPct.set(+$any($event.target).value)" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleMass.liberationSize' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" [value]="liberationSizeMm()" (input)="liberationSizeMm.set(+$any($event.target).value)" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleMass.expectedGrade' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" [value]="gradeGpt()" (input)="gradeGpt.set(+$any($event.target).value)" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleMass.targetError' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" [value]="targetPct()" (input)="targetPct.set(+$any($event.target).value)" /></mat-form-field>
       </form>
 
       @if (advice(); as advice) {
         @if (advice.ok) {
           <article class="answer" data-testid="sample-mass-answer">
-            <h2>At least {{ advice.value.minimumMassKg | number: '1.0-2' }} kg</h2>
-            <p>{{ advice.value.formula }}, solved for the sample mass Ms with a lot much larger than the sample.</p>
+            <h2>{{ 'sampleMass.answer' | transloco: { kg: advice.value.minimumMassKg | hsNumber: '1.0-2' } }}</h2>
+            <p>{{ 'sampleMass.formula' | transloco: { formula: advice.value.formula } }}</p>
             <dl>
-              <dt>d, top size</dt><dd>{{ advice.value.factors.topSizeCm | number: '1.0-4' }} cm</dd>
-              <dt>f, shape factor</dt><dd>{{ advice.value.factors.shapeFactor }}</dd>
-              <dt>g, size-range factor</dt><dd>{{ advice.value.factors.granulometricFactor }}</dd>
-              <dt>c, mineralogical factor</dt><dd>{{ advice.value.factors.mineralogicalFactorGPerCm3 | number: '1.0-0' }} g/cm³ (gold fraction {{ advice.value.factors.mineralFraction | number: '1.0-8' }})</dd>
-              <dt>ℓ, liberation factor</dt><dd>{{ advice.value.factors.liberationFactor | number: '1.0-4' }} (√(liberation size ÷ top size), 1 once liberated)</dd>
-              <dt>f·g·c·ℓ·d³</dt><dd>{{ advice.value.factors.constantG | number: '1.0-2' }} g</dd>
+              <dt>{{ 'sampleMass.factors.topSize' | transloco }}</dt><dd>{{ 'sampleMass.factors.topSizeValue' | transloco: { cm: advice.value.factors.topSizeCm | hsNumber: '1.0-4' } }}</dd>
+              <dt>{{ 'sampleMass.factors.shape' | transloco }}</dt><dd>{{ advice.value.factors.shapeFactor | hsNumber: '1.0-4' }}</dd>
+              <dt>{{ 'sampleMass.factors.sizeRange' | transloco }}</dt><dd>{{ advice.value.factors.granulometricFactor | hsNumber: '1.0-4' }}</dd>
+              <dt>{{ 'sampleMass.factors.mineralogical' | transloco }}</dt><dd>{{ 'sampleMass.factors.mineralogicalValue' | transloco: { value: advice.value.factors.mineralogicalFactorGPerCm3 | hsNumber: '1.0-0', fraction: advice.value.factors.mineralFraction | hsNumber: '1.0-8' } }}</dd>
+              <dt>{{ 'sampleMass.factors.liberation' | transloco }}</dt><dd>{{ 'sampleMass.factors.liberationValue' | transloco: { value: advice.value.factors.liberationFactor | hsNumber: '1.0-4' } }}</dd>
+              <dt>{{ 'sampleMass.factors.constant' | transloco }}</dt><dd>{{ 'sampleMass.factors.constantValue' | transloco: { g: advice.value.factors.constantG | hsNumber: '1.0-2' } }}</dd>
             </dl>
-            <p class="hs-muted">Halving the top size by crushing before splitting cuts the mass needed about eightfold (d³), until the gold is liberated.</p>
+            <p class="hs-muted">{{ 'sampleMass.crushing' | transloco }}</p>
           </article>
         } @else {
           <ul class="problems" role="alert">
-            @for (error of advice.errors; track $index) { <li>{{ error.message }}</li> }
+            @for (error of advice.errors; track $index) { <li>{{ errorText(error) }}</li> }
           </ul>
         }
       }
@@ -60,6 +77,7 @@ import { meshToApertureUm, minimumSampleMass } from '../../../../../../shared/en
   `,
 })
 export default class SampleMassPage {
+  private readonly transloco = inject(TranslocoService);
   protected readonly topUnit = signal<'mm' | 'mesh'>('mm');
   protected readonly topSize = signal(2);
   protected readonly liberationSizeMm = signal(0.075);
@@ -75,4 +93,20 @@ export default class SampleMassPage {
     }
     return minimumSampleMass({ topSizeMm, liberationSizeMm: this.liberationSizeMm(), gradeGpt: this.gradeGpt(), targetRelativeSd: this.targetPct() / 100 });
   });
+
+  /**
+   * The engine's refusal in the reader's language, by its code and field; a refusal the page has no
+   * words for is shown as the engine wrote it.
+   */
+  protected errorText(error: EngineError): string {
+    if (error.code === 'unknown-value' && error.field === 'mesh') {
+      return this.transloco.translate('sampleMass.errors.unknownMesh', { mesh: this.topSize() });
+    }
+    if (error.code === 'out-of-range' && error.field === 'mineralFraction') {
+      return this.transloco.translate('sampleMass.errors.wholeSample');
+    }
+    const rule = NUMBER_RULES[error.code];
+    const field = FIELD_NAMES[error.field];
+    return rule && field ? this.transloco.translate(rule, { field: this.transloco.translate(field) }) : error.message;
+  }
 }
