@@ -55,6 +55,13 @@ export class HeapsightDb extends Dexie {
       conflicts: 'id',
       drafts: 'key',
     });
+    // deletedAt indexed so screens count and list live records without reading every row: IndexedDB
+    // leaves a record out of an index when the key is null, so the index holds only the deleted ones.
+    this.version(2).stores({
+      piles: 'id, siteId, code, deletedAt',
+      samples: 'id, pileId, code, collectedAt, deletedAt',
+      panTests: 'id, sampleId, deletedAt',
+    });
   }
 }
 

@@ -3,12 +3,16 @@ import { liveQuery } from 'dexie';
 import { makeHumanCode } from '../../../../shared/sync/human-code';
 import type { EntityData, PanTestData, PileData, SampleData, SyncEntity } from '../../../../shared/sync/protocol';
 import { AuthSession } from '../../core/auth/auth-session';
-import { heapsightDb, type LocalPanTest, type LocalPhoto, type LocalPile, type LocalSample } from '../../core/db/heapsight-db';
+import { heapsightDb, type LocalPile, type LocalSample } from '../../core/db/heapsight-db';
 import { saveRecord } from '../../core/sync/device-outbox';
 import { SyncService } from '../../core/sync/sync.service';
 import { resizePhoto } from './photo-resize';
 
-/** Piles, samples, pan tests and photos on this device, as signals over Dexie, and the ways to record them. */
+/**
+ * Piles and samples on this device, as signals over Dexie, for the forms' pickers, and the ways to
+ * record piles, samples, pan tests and photos. (Capture home reads counts and pages itself, and never
+ * every pan test or photo with its bytes.)
+ */
 @Injectable({ providedIn: 'root' })
 export class CaptureStore {
   private readonly db = heapsightDb();
@@ -17,15 +21,11 @@ export class CaptureStore {
 
   readonly piles = signal<LocalPile[]>([]);
   readonly samples = signal<LocalSample[]>([]);
-  readonly panTests = signal<LocalPanTest[]>([]);
-  readonly photos = signal<LocalPhoto[]>([]);
   readonly livePiles = computed(() => this.piles().filter((pile) => pile.deletedAt === null));
 
   constructor() {
     liveQuery(() => this.db.piles.orderBy('code').toArray()).subscribe((rows) => this.piles.set(rows));
     liveQuery(() => this.db.samples.orderBy('code').toArray()).subscribe((rows) => this.samples.set(rows.filter((row) => row.deletedAt === null)));
-    liveQuery(() => this.db.panTests.toArray()).subscribe((rows) => this.panTests.set(rows));
-    liveQuery(() => this.db.photos.toArray()).subscribe((rows) => this.photos.set(rows));
   }
 
   /** The sites this person may record at, with codes for the human codes. */

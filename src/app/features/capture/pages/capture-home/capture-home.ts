@@ -1,40 +1,71 @@
-import { Component, computed, inject } from '@angular/core';
+import { Component, afterNextRender, computed, effect, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { liveQuery } from 'dexie';
+import { countLive, firstPhotoOf, latestSamples, pilesByCode } from '../../../../core/db/device-queries';
+import { heapsightDb, type LocalPhoto, type LocalPile, type LocalSample } from '../../../../core/db/heapsight-db';
 import { SyncService } from '../../../../core/sync/sync.service';
-import { MATERIAL_LABELS, SAMPLE_TYPE_LABELS } from '../../capture-labels';
-import { CaptureStore } from '../../capture.store';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { PhotoThumb } from '../../components/photo-thumb';
 
-/** The crew's home: what waits on this device, and the ways to record a pile, a sample or a pan test. */
+/** How many records each list shows at first, and how many more a tap on "Show more" adds. */
+export const PILES_PAGE = 30;
+export const SAMPLES_PAGE = 20;
+
+/** What the home screen shows: counts from the indexes and one page of each list, never every row. */
+interface Overview {
+  readonly pileCount: number;
+  readonly sampleCount: number;
+  readonly panTestCount: number;
+  readonly piles: readonly LocalPile[];
+  readonly samples: readonly LocalSample[];
+  readonly photos: ReadonlyMap<string, LocalPhoto>;
+}
+
+/**
+ * The crew's home: what waits on this device, and the ways to record a pile, a sample or a pan test.
+ * It reads counts and a page of piles and of the latest samples (so it opens at once on a phone
+ * holding tens of thousands of samples), following every change to the device database.
+ */
 @Component({
   selector: 'hs-capture-home',
-  imports: [MatButtonModule, MatIconModule, RouterLink, PhotoThumb],
+  imports: [MatButtonModule, MatIconModule, RouterLink, TranslocoPipe, LOCALE_FORMAT_PIPES, PhotoThumb],
   template: `
     <section class="hs-page">
-      <h1>Capture</h1>
-      <p class="queue" role="status"><mat-icon aria-hidden="true">cloud_upload</mat-icon> {{ sync.queueSize() }} changes wait on this phone</p>
-      <nav class="actions" aria-label="Record">
-        <a mat-flat-button routerLink="pile/new"><mat-icon>add_location_alt</mat-icon> New pile</a>
-        <a mat-flat-button routerLink="sample/new"><mat-icon>science</mat-icon> New sample</a>
-        <a mat-flat-button routerLink="pan-test/new"><mat-icon>filter_vintage</mat-icon> Pan test</a>
+      <h1>{{ 'common.titles.capture' | transloco }}</h1>
+      <p class="queue" role="status"><mat-icon aria-hidden="true">cloud_upload</mat-icon> {{ 'capture.home.queue' | transloco: { count: sync.queueSize() } }}</p>
+      <nav class="actions" [attr.aria-label]="'capture.home.recordActions' | transloco">
+        <a mat-flat-button routerLink="pile/new"><mat-icon>add_location_alt</mat-icon> {{ 'common.titles.newPile' | transloco }}</a>
+        <a mat-flat-button routerLink="sample/new"><mat-icon>science</mat-icon> {{ 'common.titles.newSample' | transloco }}</a>
+        <a mat-flat-button routerLink="pan-test/new"><mat-icon>filter_vintage</mat-icon> {{ 'common.titles.panTest' | transloco }}</a>
       </nav>
-      <h2>Piles ({{ store.livePiles().length }})</h2>
-      <ul class="records">
-        @for (pile of store.livePiles(); track pile.id) {
-          <li><hs-photo-thumb [photo]="photoOf(pile.id)" /> <span><strong>{{ pile.code }}</strong> {{ materialLabels[pile.material] }}</span>
-            @if (pile.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
+      @if (overview(); as view) {
+        <h2>{{ 'capture.home.piles' | transloco: { count: view.pileCount } }}</h2>
+        <ul class="records">
+          @for (pile of view.piles; track pile.id) {
+            <li><hs-photo-thumb [photo]="view.photos.get(pile.id) ?? null" /> <span><strong>{{ pile.code }}</strong> {{ ('common.terms.material.' + pile.material) | transloco }}</span>
+              @if (pile.hasPendingChange) { <mat-icon [attr.aria-label]="'capture.home.waitingToSync' | transloco">schedule</mat-icon> }</li>
+          }
+        </ul>
+        @if (view.piles.length < view.pileCount) {
+          <p class="more"><span class="hs-muted">{{ 'capture.home.pilesShown' | transloco: { shown: view.piles.length, count: view.pileCount } }}</span>
+            <button mat-stroked-button type="button" (click)="pileLimit.set(pileLimit() + pilesPage)"><mat-icon aria-hidden="true">expand_more</mat-icon> {{ 'capture.home.morePiles' | transloco }}</button></p>
         }
-      </ul>
-      <h2>Samples ({{ store.samples().length }})</h2>
-      <ul class="records">
-        @for (sample of store.samples(); track sample.id) {
-          <li><hs-photo-thumb [photo]="photoOf(sample.id)" /> <span><strong>{{ sample.code }}</strong> {{ typeLabels[sample.sampleType] }}@if (sample.wetMassKg !== null) {, {{ sample.wetMassKg }} kg}</span>
-            @if (sample.hasPendingChange) { <mat-icon aria-label="waiting to sync">schedule</mat-icon> }</li>
+        <h2>{{ 'capture.home.samples' | transloco: { count: view.sampleCount } }}</h2>
+        <ul class="records">
+          @for (sample of view.samples; track sample.id) {
+            <li><hs-photo-thumb [photo]="view.photos.get(sample.id) ?? null" /> <span><strong>{{ sample.code }}</strong> {{ ('common.terms.sampleType.' + sample.sampleType) | transloco }}@if (sample.wetMassKg !== null) {, {{ 'capture.home.wetMass' | transloco: { mass: (sample.wetMassKg | hsNumber: '1.0-2') } }}}</span>
+              @if (sample.hasPendingChange) { <mat-icon [attr.aria-label]="'capture.home.waitingToSync' | transloco">schedule</mat-icon> }</li>
+          }
+        </ul>
+        @if (view.samples.length < view.sampleCount) {
+          <p class="more"><span class="hs-muted">{{ 'capture.home.samplesShown' | transloco: { shown: view.samples.length, count: view.sampleCount } }}</span>
+            <button mat-stroked-button type="button" (click)="sampleLimit.set(sampleLimit() + samplesPage)"><mat-icon aria-hidden="true">expand_more</mat-icon> {{ 'capture.home.moreSamples' | transloco }}</button></p>
         }
-      </ul>
-      <p>Pan tests: {{ store.panTests().length }}</p>
+        <p>{{ 'capture.home.panTests' | transloco: { count: view.panTestCount } }}</p>
+      }
     </section>
   `,
   styles: `
@@ -43,16 +74,45 @@ import { PhotoThumb } from '../../components/photo-thumb';
     .queue { display: flex; align-items: center; gap: 8px; font: var(--mat-sys-title-small); }
     .records { list-style: none; padding: 0; margin: 0; }
     .records li { display: flex; align-items: center; gap: 12px; min-height: 56px; border-bottom: 1px solid var(--mat-sys-outline-variant); }
+    .more { display: flex; flex-wrap: wrap; align-items: center; gap: 8px 12px; }
   `,
 })
 export default class CaptureHome {
-  protected readonly store = inject(CaptureStore);
   protected readonly sync = inject(SyncService);
-  protected readonly materialLabels = MATERIAL_LABELS;
-  protected readonly typeLabels = SAMPLE_TYPE_LABELS;
-  private readonly photosByOwner = computed(() => new Map(this.store.photos().map((photo) => [photo.ownerId, photo])));
+  private readonly db = heapsightDb();
+  protected readonly pilesPage = PILES_PAGE;
+  protected readonly samplesPage = SAMPLES_PAGE;
+  protected readonly pileLimit = signal(PILES_PAGE);
+  protected readonly sampleLimit = signal(SAMPLES_PAGE);
+  protected readonly overview = signal<Overview | null>(null);
+  /** True once the first read of the device database has been drawn. */
+  readonly isLoaded = computed(() => this.overview() !== null);
 
-  protected photoOf(ownerId: string) {
-    return this.photosByOwner().get(ownerId) ?? null;
+  constructor() {
+    effect((onCleanup) => {
+      const [pileLimit, sampleLimit] = [this.pileLimit(), this.sampleLimit()];
+      const subscription = liveQuery(() => this.read(pileLimit, sampleLimit)).subscribe({
+        next: (overview) => this.overview.set(overview),
+        error: (error: unknown) => console.error('capture home: the device database could not be read', error),
+      });
+      onCleanup(() => subscription.unsubscribe());
+    });
+    // Once the list is drawn, fetch and compile the sample and pan-test forms while the crew reads
+    // it, so a tap on a slow phone only has to draw the form (the pile form, with its map, loads
+    // when asked for). Idle time only, so it never competes with the first screen.
+    afterNextRender(() => {
+      const warm = () => { void import('../sample-form/sample-form'); void import('../pan-test-form/pan-test-form'); };
+      if ('requestIdleCallback' in window) requestIdleCallback(warm, { timeout: 4000 });
+      else setTimeout(warm, 1000);
+    });
+  }
+
+  private async read(pileLimit: number, sampleLimit: number): Promise<Overview> {
+    const [pileCount, sampleCount, panTestCount, piles, samples] = await Promise.all([
+      countLive(this.db.piles), countLive(this.db.samples), countLive(this.db.panTests),
+      pilesByCode(this.db, { limit: pileLimit }), latestSamples(this.db, sampleLimit),
+    ]);
+    const photos = await firstPhotoOf(this.db, [...piles.map((pile) => pile.id), ...samples.map((sample) => sample.id)]);
+    return { pileCount, sampleCount, panTestCount, piles, samples, photos };
   }
 }
