@@ -1,6 +1,7 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
+import type { ProblemKeys } from '../sign-in/problem-text';
 
 /** A batch as `GET /api/lab-batches` lists it. */
 export interface BatchSummary {
@@ -174,22 +175,38 @@ export class LabBatchesStore {
   }
 }
 
-/** Icon and words for a verdict, so it never rests on colour alone. */
-export const VERDICT_LABELS: Record<QcVerdict, { icon: string; text: string }> = {
-  pass: { icon: 'check_circle', text: 'Pass' },
-  warn: { icon: 'warning', text: 'Warn' },
-  fail: { icon: 'cancel', text: 'Fail' },
-  'no-result': { icon: 'hourglass_empty', text: 'No result yet' },
-  'unknown-standard': { icon: 'help', text: 'Unknown standard' },
-  'no-qc': { icon: 'remove', text: 'No QA/QC items' },
+/** Icon and words (translation key) for a verdict, so it never rests on colour alone. */
+export const VERDICT_LABELS: Record<QcVerdict, { icon: string; key: string }> = {
+  pass: { icon: 'check_circle', key: 'labBatches.verdict.pass' },
+  warn: { icon: 'warning', key: 'labBatches.verdict.warn' },
+  fail: { icon: 'cancel', key: 'labBatches.verdict.fail' },
+  'no-result': { icon: 'hourglass_empty', key: 'labBatches.verdict.noResult' },
+  'unknown-standard': { icon: 'help', key: 'labBatches.verdict.unknownStandard' },
+  'no-qc': { icon: 'remove', key: 'labBatches.verdict.noQc' },
 };
 
-/** Icon and words for a batch status. */
-export const STATUS_LABELS: Record<BatchSummary['status'], { icon: string; text: string }> = {
-  draft: { icon: 'edit_note', text: 'Draft' },
-  dispatched: { icon: 'local_shipping', text: 'Dispatched' },
-  received: { icon: 'inventory', text: 'Received by lab' },
-  reported: { icon: 'fact_check', text: 'Results in' },
+/** Icon and words (translation key) for a batch status. */
+export const STATUS_LABELS: Record<BatchSummary['status'], { icon: string; key: string }> = {
+  draft: { icon: 'edit_note', key: 'labBatches.status.draft' },
+  dispatched: { icon: 'local_shipping', key: 'labBatches.status.dispatched' },
+  received: { icon: 'inventory', key: 'labBatches.status.received' },
+  reported: { icon: 'fact_check', key: 'labBatches.status.reported' },
+};
+
+/**
+ * The refusals these pages explain in the reader's language, by the API's error code. A validation
+ * failure or a conflict keeps the server's words: they name the exact field or state.
+ */
+export const LAB_BATCH_PROBLEMS: ProblemKeys = {
+  offline: 'labBatches.problems.offline',
+  unauthenticated: 'labBatches.problems.signIn',
+  token_expired: 'labBatches.problems.signIn',
+  forbidden: 'labBatches.problems.forbidden',
+  not_found: 'labBatches.problems.notFound',
+  payload_too_large: 'labBatches.problems.tooLarge',
+  unsupported_media_type: 'labBatches.problems.notCsv',
+  rate_limited: 'labBatches.problems.rateLimited',
+  internal: 'labBatches.problems.internal',
 };
 
 /** Saves a blob as a file through a temporary link. */

@@ -1,42 +1,44 @@
-import { DatePipe } from '@angular/common';
 import { Component, OnInit, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
-import { LabBatchesStore, STATUS_LABELS, type BatchSummary } from '../../lab-batches.store';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import { problemText } from '../../../sign-in/problem-text';
+import { LAB_BATCH_PROBLEMS, LabBatchesStore, STATUS_LABELS, type BatchSummary } from '../../lab-batches.store';
 
 /** `Lab batches`: the batches of the geologist's sites, or those addressed to the lab user's lab. */
 @Component({
   selector: 'hs-lab-batches-page',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
+  imports: [LOCALE_FORMAT_PIPES, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1><mat-icon aria-hidden="true">science</mat-icon> Lab batches</h1>
+      <h1><mat-icon aria-hidden="true">science</mat-icon> {{ 'labBatches.list.title' | transloco }}</h1>
       @if (isLab()) {
-        <p class="hs-muted">Batches addressed to {{ session.user()?.labName }}. Open one to download its submission sheet and upload the results.</p>
+        <p class="hs-muted">{{ 'labBatches.list.introLab' | transloco: { lab: session.user()?.labName ?? '' } }}</p>
       } @else {
-        <p class="hs-muted">Samples go to the lab in batches with blanks, reference standards and duplicates; results come back as a CSV, checked before anything is saved.</p>
-        <a mat-flat-button routerLink="/lab-batches/new" class="touch"><mat-icon>add</mat-icon> New batch</a>
+        <p class="hs-muted">{{ 'labBatches.list.intro' | transloco }}</p>
+        <a mat-flat-button routerLink="/lab-batches/new" class="touch"><mat-icon>add</mat-icon> {{ 'labBatches.list.newBatch' | transloco }}</a>
       }
-      @if (isLoading()) { <mat-progress-bar mode="indeterminate" aria-label="Loading" /> }
+      @if (isLoading()) { <mat-progress-bar mode="indeterminate" [attr.aria-label]="'labBatches.list.loading' | transloco" /> }
       @if (problem(); as text) { <p class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon> {{ text }}</p> }
-      <ul class="batches" aria-label="Lab batches">
+      <ul class="batches" [attr.aria-label]="'labBatches.list.title' | transloco">
         @for (batch of batches(); track batch.id) {
           <li>
             <a [routerLink]="['/lab-batches', batch.id]" class="batch">
               <mat-icon aria-hidden="true">{{ statusLabels[batch.status].icon }}</mat-icon>
               <span class="text">
                 <strong>{{ batch.code }}</strong>
-                <span>{{ batch.itemCount }} bags · {{ batch.labName }} · {{ batch.method }}</span>
-                <span class="hs-muted">{{ statusLabels[batch.status].text }} · made {{ batch.createdAt | date: 'd MMM y' }}</span>
+                <span>{{ 'labBatches.list.line' | transloco: { count: batch.itemCount, lab: batch.labName, method: batch.method } }}</span>
+                <span class="hs-muted">{{ 'labBatches.list.made' | transloco: { status: (statusLabels[batch.status].key | transloco), date: (batch.createdAt | hsDate: 'd MMM y') } }}</span>
               </span>
             </a>
           </li>
         } @empty {
-          @if (!isLoading()) { <li class="hs-muted">No lab batches yet.</li> }
+          @if (!isLoading()) { <li class="hs-muted">{{ 'labBatches.list.empty' | transloco }}</li> }
         }
       </ul>
     </section>
@@ -53,6 +55,7 @@ import { LabBatchesStore, STATUS_LABELS, type BatchSummary } from '../../lab-bat
 export default class LabBatchesPage implements OnInit {
   protected readonly session = inject(AuthSession);
   private readonly store = inject(LabBatchesStore);
+  private readonly transloco = inject(TranslocoService);
   protected readonly statusLabels = STATUS_LABELS;
   protected readonly batches = signal<readonly BatchSummary[]>([]);
   protected readonly isLoading = signal(false);
@@ -64,7 +67,7 @@ export default class LabBatchesPage implements OnInit {
     try {
       this.batches.set(await this.store.list());
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), LAB_BATCH_PROBLEMS));
     } finally {
       this.isLoading.set(false);
     }

@@ -1,4 +1,3 @@
-import { DecimalPipe } from '@angular/common';
 import { Component, OnInit, computed, inject, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -10,94 +9,110 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
-import { LabBatchesStore, type CandidateSample, type ReferenceStandard } from '../../lab-batches.store';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import { problemText } from '../../../sign-in/problem-text';
+import { LAB_BATCH_PROBLEMS, LabBatchesStore, type CandidateSample, type ReferenceStandard } from '../../lab-batches.store';
 
-/** Type letters beside the words, so the type never rests on colour. */
-const TYPE_LETTERS: Record<string, string> = { routine: 'R', duplicate: 'D', blank: 'B', standard: 'S' };
+/** Type letters beside the words, so the type never rests on colour; each language has its own (translation keys). */
+const TYPE_LETTER_KEYS: Record<string, string> = {
+  routine: 'labBatches.newBatch.letter.routine', duplicate: 'labBatches.newBatch.letter.duplicate',
+  blank: 'labBatches.newBatch.letter.blank', standard: 'labBatches.newBatch.letter.standard',
+};
+
+/** The form's fields by the name the API gives them in a refusal, so a refused field is named in the reader's words. */
+const FIELD_KEYS: Record<string, string> = {
+  siteId: 'labBatches.newBatch.site', sampleIds: 'labBatches.newBatch.col.sample', labName: 'labBatches.newBatch.labName',
+  labContactEmail: 'labBatches.newBatch.labEmail', method: 'labBatches.newBatch.method', chargeMassG: 'labBatches.newBatch.chargeMass',
+  detectionLimitGpt: 'labBatches.newBatch.detectionLimit', upperLimitGpt: 'labBatches.newBatch.upperLimit',
+  blankEvery: 'labBatches.newBatch.blankEvery', standardEvery: 'labBatches.newBatch.standardEvery',
+  duplicateEvery: 'labBatches.newBatch.duplicateEvery', standardCodes: 'labBatches.newBatch.standards', seed: 'labBatches.newBatch.seed',
+};
 
 /** A new lab batch: pick samples (filters, select all), QA/QC rates, lab and method. */
 @Component({
   selector: 'hs-new-batch-page',
-  imports: [DecimalPipe, FormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, MatSlideToggleModule, MatTableModule],
+  imports: [FormsModule, LOCALE_FORMAT_PIPES, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, MatSlideToggleModule, MatTableModule, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1><mat-icon aria-hidden="true">add_box</mat-icon> New lab batch</h1>
+      <h1><mat-icon aria-hidden="true">add_box</mat-icon> {{ 'labBatches.newBatch.title' | transloco }}</h1>
       <div class="row">
         <mat-form-field>
-          <mat-label>Site</mat-label>
+          <mat-label>{{ 'labBatches.newBatch.site' | transloco }}</mat-label>
           <mat-select [ngModel]="siteId()" (ngModelChange)="chooseSite($event)" name="site">
             @for (site of sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} · {{ site.name }}</mat-option> }
           </mat-select>
         </mat-form-field>
         <mat-form-field>
-          <mat-label>Find sample or pile code</mat-label>
+          <mat-label>{{ 'labBatches.newBatch.codeFilter' | transloco }}</mat-label>
           <input matInput [ngModel]="codeFilter()" (ngModelChange)="codeFilter.set($event)" name="codeFilter" autocomplete="off" />
         </mat-form-field>
         <mat-form-field>
-          <mat-label>Sample type</mat-label>
+          <mat-label>{{ 'labBatches.newBatch.typeFilter' | transloco }}</mat-label>
           <mat-select [ngModel]="typeFilter()" (ngModelChange)="typeFilter.set($event)" name="typeFilter">
-            <mat-option value="">Any</mat-option>
-            <mat-option value="routine">Routine</mat-option><mat-option value="duplicate">Field duplicate</mat-option>
-            <mat-option value="blank">Blank</mat-option><mat-option value="standard">Reference standard</mat-option>
+            <mat-option value="">{{ 'labBatches.newBatch.anyType' | transloco }}</mat-option>
+            @for (type of sampleTypes; track type) { <mat-option [value]="type">{{ 'common.terms.sampleType.' + type | transloco }}</mat-option> }
           </mat-select>
         </mat-form-field>
-        <mat-slide-toggle [ngModel]="onlyUnassayed()" (ngModelChange)="onlyUnassayed.set($event)" name="onlyUnassayed" class="touch">Only samples without an assay</mat-slide-toggle>
+        <mat-slide-toggle [ngModel]="onlyUnassayed()" (ngModelChange)="onlyUnassayed.set($event)" name="onlyUnassayed" class="touch">{{ 'labBatches.newBatch.onlyUnassayed' | transloco }}</mat-slide-toggle>
       </div>
 
       <div class="table-wrap">
-        <table mat-table [dataSource]="visible()" aria-label="Samples to choose from">
+        <table mat-table [dataSource]="visible()" [attr.aria-label]="'labBatches.newBatch.tableLabel' | transloco">
           <ng-container matColumnDef="select">
             <th mat-header-cell *matHeaderCellDef>
-              <mat-checkbox [checked]="isAllVisibleSelected()" [indeterminate]="isSomeVisibleSelected()" (change)="toggleAllVisible()" aria-label="Select all shown samples" />
+              <mat-checkbox [checked]="isAllVisibleSelected()" [indeterminate]="isSomeVisibleSelected()" (change)="toggleAllVisible()" [aria-label]="'labBatches.newBatch.selectAll' | transloco" />
             </th>
             <td mat-cell *matCellDef="let sample">
-              <mat-checkbox [checked]="selected().has(sample.id)" (change)="toggle(sample.id)" [aria-label]="'Select ' + sample.code" />
+              <mat-checkbox [checked]="selected().has(sample.id)" (change)="toggle(sample.id)" [aria-label]="'labBatches.newBatch.selectOne' | transloco: { code: sample.code }" />
             </td>
           </ng-container>
-          <ng-container matColumnDef="code"><th mat-header-cell *matHeaderCellDef>Sample</th><td mat-cell *matCellDef="let sample">{{ sample.code }}</td></ng-container>
-          <ng-container matColumnDef="pile"><th mat-header-cell *matHeaderCellDef>Pile</th><td mat-cell *matCellDef="let sample">{{ sample.pileCode }}</td></ng-container>
-          <ng-container matColumnDef="type"><th mat-header-cell *matHeaderCellDef>Type</th><td mat-cell *matCellDef="let sample"><span class="letter">{{ letters[sample.sampleType] }}</span> {{ sample.sampleType }}</td></ng-container>
-          <ng-container matColumnDef="pan"><th mat-header-cell *matHeaderCellDef>Pan g/t</th><td mat-cell *matCellDef="let sample">{{ sample.panGpt === null ? '—' : (sample.panGpt | number: '1.2-2') }}</td></ng-container>
-          <ng-container matColumnDef="assay"><th mat-header-cell *matHeaderCellDef>Assay g/t</th><td mat-cell *matCellDef="let sample">{{ sample.assayGpt === null ? '—' : (sample.assayGpt | number: '1.3-3') }}</td></ng-container>
-          <ng-container matColumnDef="batches"><th mat-header-cell *matHeaderCellDef>In batches</th><td mat-cell *matCellDef="let sample">{{ sample.batchCodes.join(', ') || '—' }}</td></ng-container>
+          <ng-container matColumnDef="code"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.sample' | transloco }}</th><td mat-cell *matCellDef="let sample">{{ sample.code }}</td></ng-container>
+          <ng-container matColumnDef="pile"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.pile' | transloco }}</th><td mat-cell *matCellDef="let sample">{{ sample.pileCode }}</td></ng-container>
+          <ng-container matColumnDef="type"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.type' | transloco }}</th><td mat-cell *matCellDef="let sample"><span class="letter">{{ letterKeys[sample.sampleType] | transloco }}</span> {{ 'common.terms.sampleType.' + sample.sampleType | transloco }}</td></ng-container>
+          <ng-container matColumnDef="pan"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.pan' | transloco }}</th><td mat-cell *matCellDef="let sample">{{ sample.panGpt === null ? '—' : (sample.panGpt | hsNumber: '1.2-2') }}</td></ng-container>
+          <ng-container matColumnDef="assay"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.assay' | transloco }}</th><td mat-cell *matCellDef="let sample">{{ sample.assayGpt === null ? '—' : (sample.assayGpt | hsNumber: '1.3-3') }}</td></ng-container>
+          <ng-container matColumnDef="batches"><th mat-header-cell *matHeaderCellDef>{{ 'labBatches.newBatch.col.batches' | transloco }}</th><td mat-cell *matCellDef="let sample">{{ sample.batchCodes.join(', ') || '—' }}</td></ng-container>
           <tr mat-header-row *matHeaderRowDef="columns"></tr>
           <tr mat-row *matRowDef="let row; columns: columns"></tr>
         </table>
       </div>
-      <p><strong>{{ selected().size }}</strong> samples chosen of {{ candidates().length }}.</p>
+      <p data-testid="chosen">{{ 'labBatches.newBatch.chosen' | transloco: { count: selected().size, total: candidates().length } }}</p>
 
       <form (ngSubmit)="create()" class="form">
-        <h2>QA/QC inserted</h2>
+        <h2>{{ 'labBatches.newBatch.qaqcTitle' | transloco }}</h2>
         <div class="row">
-          <mat-form-field><mat-label>A blank every … samples</mat-label><input matInput type="number" min="0" [(ngModel)]="blankEvery" name="blankEvery" /></mat-form-field>
-          <mat-form-field><mat-label>A standard every … samples</mat-label><input matInput type="number" min="0" [(ngModel)]="standardEvery" name="standardEvery" /></mat-form-field>
-          <mat-form-field><mat-label>A split duplicate every … samples</mat-label><input matInput type="number" min="0" [(ngModel)]="duplicateEvery" name="duplicateEvery" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.blankEvery' | transloco }}</mat-label><input matInput type="number" min="0" [(ngModel)]="blankEvery" name="blankEvery" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.standardEvery' | transloco }}</mat-label><input matInput type="number" min="0" [(ngModel)]="standardEvery" name="standardEvery" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.duplicateEvery' | transloco }}</mat-label><input matInput type="number" min="0" [(ngModel)]="duplicateEvery" name="duplicateEvery" /></mat-form-field>
           <mat-form-field>
-            <mat-label>Reference standards</mat-label>
+            <mat-label>{{ 'labBatches.newBatch.standards' | transloco }}</mat-label>
             <mat-select multiple [(ngModel)]="standardCodes" name="standardCodes">
-              @for (standard of standards(); track standard.code) { <mat-option [value]="standard.code">{{ standard.code }} ({{ standard.expectedGpt }} ± {{ standard.sdGpt }} g/t)</mat-option> }
+              @for (standard of standards(); track standard.code) {
+                <mat-option [value]="standard.code">{{ 'labBatches.newBatch.standardOption' | transloco: { code: standard.code, expected: (standard.expectedGpt | hsNumber: '1.0-4'), sd: (standard.sdGpt | hsNumber: '1.0-4') } }}</mat-option>
+              }
             </mat-select>
           </mat-form-field>
-          <mat-form-field><mat-label>Seed of the random order</mat-label><input matInput type="number" min="0" [(ngModel)]="seed" name="seed" /></mat-form-field>
-          <mat-slide-toggle [(ngModel)]="isBlind" name="isBlind" class="touch">Ship blanks and standards blind</mat-slide-toggle>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.seed' | transloco }}</mat-label><input matInput type="number" min="0" [(ngModel)]="seed" name="seed" /></mat-form-field>
+          <mat-slide-toggle [(ngModel)]="isBlind" name="isBlind" class="touch">{{ 'labBatches.newBatch.blind' | transloco }}</mat-slide-toggle>
         </div>
-        <h2>Lab and method</h2>
+        <h2>{{ 'labBatches.newBatch.labTitle' | transloco }}</h2>
         <div class="row">
-          <mat-form-field><mat-label>Laboratory</mat-label><input matInput required [(ngModel)]="labName" name="labName" /></mat-form-field>
-          <mat-form-field><mat-label>Lab contact e-mail</mat-label><input matInput required type="email" [(ngModel)]="labContactEmail" name="labContactEmail" /></mat-form-field>
-          <mat-form-field><mat-label>Method</mat-label><input matInput required [(ngModel)]="method" name="method" /></mat-form-field>
-          <mat-form-field><mat-label>Charge mass g</mat-label><input matInput type="number" min="1" [(ngModel)]="chargeMassG" name="chargeMassG" /></mat-form-field>
-          <mat-form-field><mat-label>Detection limit g/t</mat-label><input matInput type="number" step="0.001" [(ngModel)]="detectionLimitGpt" name="detectionLimitGpt" /></mat-form-field>
-          <mat-form-field><mat-label>Upper limit g/t</mat-label><input matInput type="number" [(ngModel)]="upperLimitGpt" name="upperLimitGpt" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.labName' | transloco }}</mat-label><input matInput required [(ngModel)]="labName" name="labName" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.labEmail' | transloco }}</mat-label><input matInput required type="email" [(ngModel)]="labContactEmail" name="labContactEmail" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.method' | transloco }}</mat-label><input matInput required [(ngModel)]="method" name="method" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.chargeMass' | transloco }}</mat-label><input matInput type="number" min="1" [(ngModel)]="chargeMassG" name="chargeMassG" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.detectionLimit' | transloco }}</mat-label><input matInput type="number" step="0.001" [(ngModel)]="detectionLimitGpt" name="detectionLimitGpt" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'labBatches.newBatch.upperLimit' | transloco }}</mat-label><input matInput type="number" [(ngModel)]="upperLimitGpt" name="upperLimitGpt" /></mat-form-field>
         </div>
         @if (problem(); as text) {
           <div class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon>
             <div>{{ text }}@for (detail of details(); track $index) {<br />{{ detail }}}</div>
           </div>
         }
-        <button mat-flat-button type="submit" class="touch" [disabled]="selected().size === 0 || isSaving()"><mat-icon>inventory_2</mat-icon> Make the batch</button>
+        <button mat-flat-button type="submit" class="touch" [disabled]="selected().size === 0 || isSaving()"><mat-icon>inventory_2</mat-icon> {{ 'labBatches.newBatch.submit' | transloco }}</button>
       </form>
     </section>
   `,
@@ -115,7 +130,9 @@ export default class NewBatchPage implements OnInit {
   private readonly session = inject(AuthSession);
   private readonly store = inject(LabBatchesStore);
   private readonly router = inject(Router);
-  protected readonly letters = TYPE_LETTERS;
+  private readonly transloco = inject(TranslocoService);
+  protected readonly letterKeys = TYPE_LETTER_KEYS;
+  protected readonly sampleTypes = ['routine', 'duplicate', 'blank', 'standard'] as const;
   protected readonly columns = ['select', 'code', 'pile', 'type', 'pan', 'assay', 'batches'];
   protected readonly sites = computed(() => this.session.user()?.sites ?? []);
   protected readonly siteId = signal<string>('');
@@ -158,7 +175,7 @@ export default class NewBatchPage implements OnInit {
       this.standards.set(await this.store.standards());
       this.standardCodes = this.standards().slice(0, 1).map((standard) => standard.code);
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), LAB_BATCH_PROBLEMS));
     }
     if (first) {
       await this.chooseSite(first.id);
@@ -171,7 +188,7 @@ export default class NewBatchPage implements OnInit {
     try {
       this.candidates.set(await this.store.candidates(siteId));
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), LAB_BATCH_PROBLEMS));
     }
   }
 
@@ -205,10 +222,16 @@ export default class NewBatchPage implements OnInit {
       await this.router.navigate(['/lab-batches', batch.id]);
     } catch (error) {
       const problem = toApiProblem(error);
-      this.problem.set(problem.message);
-      this.details.set(problem.details.map((detail) => `${detail.path}: ${detail.message}`));
+      this.problem.set(problemText(this.transloco, problem, LAB_BATCH_PROBLEMS));
+      this.details.set(problem.details.map((detail) => `${this.fieldName(detail.path)}: ${detail.message}`));
     } finally {
       this.isSaving.set(false);
     }
+  }
+
+  /** A refused field in the reader's words (the first part of the API's path), else the path as sent. */
+  private fieldName(path: string): string {
+    const key = FIELD_KEYS[path.split(/[.[]/)[0]];
+    return key ? this.transloco.translate(key) : path;
   }
 }
