@@ -44,7 +44,6 @@ export default class PeoplePage implements OnInit {
   private readonly language = inject(AppLanguage);
 
   protected readonly pageSizes = PAGE_SIZES;
-  protected readonly statusKeys = STATUS_KEYS;
   protected readonly columns = ['name', 'role', 'sites', 'status', 'actions'];
   protected readonly siteColumns = ['code', 'name', 'processing', 'actions'];
   protected readonly filter = signal('');
@@ -82,6 +81,10 @@ export default class PeoplePage implements OnInit {
 
   protected statusIcon(person: Person): string {
     return STATUS_ICONS[person.status];
+  }
+
+  protected statusKey(person: Person): string {
+    return STATUS_KEYS[person.status];
   }
 
   protected scrollTo(id: string): void {
