@@ -1,5 +1,6 @@
 import { Op, type Model, type ModelStatic, type Transaction } from 'sequelize';
 import type { EntityData, SyncEntity } from '../../shared/sync/protocol';
+import { insertRows } from './insert-rows';
 
 /** A synced record as the sync service sees it: where it lives, who owns it, and its data in API names. */
 export interface StoredRecord<E extends SyncEntity = SyncEntity> {
@@ -44,7 +45,7 @@ export interface RecordStore<E extends SyncEntity = SyncEntity> {
   codeOf(data: EntityData[E]): string | null;
   /** Ids of records holding each of these codes at a site. */
   findIdsByCode(siteId: string, codes: readonly string[], transaction: Transaction): Promise<Map<string, string>>;
-  /** Creates or replaces the rows, in one statement. */
+  /** Creates or replaces the rows, in one statement (an upsert on the id). */
   writeMany(writes: readonly RecordWrite<E>[], transaction: Transaction): Promise<void>;
 }
 
@@ -113,18 +114,27 @@ export function tableRecordStore<E extends SyncEntity>(options: TableStoreOption
       if (writes.length === 0) {
         return;
       }
-      const rows = writes.map((write) => ({
-        ...options.extraOnCreate,
-        // A sample names the device it was collected on; other records take the pushing device.
-        deviceId: write.deviceId,
-        ...(write.data as Record<string, unknown>),
-        id: write.id,
-        siteId: write.siteId,
-        revision: write.revision,
-        deletedAt: write.deletedAt,
-        createdById: write.createdById,
-      }));
-      await model.bulkCreate(rows, { transaction, updateOnDuplicate: writableColumns as string[] });
+      const rows = writes.map((write) => {
+        const row: Record<string, unknown> = {
+          ...options.extraOnCreate,
+          // A sample names the device it was collected on; other records take the pushing device.
+          deviceId: write.deviceId,
+          ...(write.data as Record<string, unknown>),
+          id: write.id,
+          siteId: write.siteId,
+          revision: write.revision,
+          deletedAt: write.deletedAt,
+          createdById: write.createdById,
+        };
+        // The data carries dates as ISO 8601 text; the DATE columns take Date objects.
+        for (const field of dateFields) {
+          if (typeof row[field] === 'string') {
+            row[field] = new Date(row[field] as string);
+          }
+        }
+        return row;
+      });
+      await insertRows(model, rows, { transaction, updateOnDuplicate: writableColumns });
     },
   };
 }

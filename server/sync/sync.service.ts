@@ -12,6 +12,7 @@ import { panTestStore, pileStore, sampleStore } from '../capture/capture.reposit
 import type { Database } from '../db/database';
 import { AppError } from '../lib/errors';
 import { photoRecordStore } from '../photos/photos.repository';
+import { insertRows } from './insert-rows';
 import type { RecordStore, RecordWrite, StoredRecord } from './record-store';
 import { ChangeLogEntry, DeviceNumber, SyncConflict, SyncMutation, SyncRevision } from './sync.models';
 
@@ -25,6 +26,12 @@ const STORES: { readonly [E in SyncEntity]: RecordStore<E> } = {
 
 /** The order a batch's writes are flushed in, parents before children (foreign keys). */
 const WRITE_ORDER: readonly SyncEntity[] = ['pile', 'sample', 'panTest', 'photo'];
+
+/** A record's change-log row moves to its latest revision (one row per record). */
+const CHANGE_LOG_UPDATES = ['revision', 'siteId', 'isDeleted', 'updatedAt'];
+
+/** An id PostgreSQL's uuid columns accept (a lookup by anything else fails there, not just finds nothing). */
+const UUID_TEXT = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 const keyOf = (entity: SyncEntity, id: string) => `${entity}:${id}`;
 const forbidden = (message: string): FieldError[] => [{ path: '', message }];
@@ -40,7 +47,8 @@ class BatchState {
   readonly writes = new Map<SyncEntity, Map<string, RecordWrite>>();
   readonly changes = new Map<string, { entity: SyncEntity; recordId: string; revision: number; siteId: string; isDeleted: boolean }>();
   readonly seenMutationIds = new Set<string>();
-  readonly appliedMutations: { mutationId: string; entity: SyncEntity; recordId: string; status: 'applied' | 'conflict'; revision: number | null; conflictId: string | null }[] = [];
+  /** The receipts to store, by mutation id (a Map, so a resend inside the batch is found at once). */
+  readonly appliedMutations = new Map<string, { mutationId: string; entity: SyncEntity; recordId: string; status: 'applied' | 'conflict'; revision: number | null; conflictId: string | null }>();
   readonly conflicts: Record<string, unknown>[] = [];
 
   constructor(readonly revision: { value: number }) {}
@@ -202,10 +210,11 @@ export class SyncService {
     const codesBySite = new Map<string, Set<string>>();
     for (const mutation of mutations) {
       want(mutation.entity, mutation.id);
-      const parsed = parseEntityData(mutation.entity, mutation.data);
-      if (parsed.ok) {
-        const parent = STORES[mutation.entity].parentOf(parsed.data as never);
-        if (parent) {
+      // Only a hint of what to read: the data is checked (zod) when the mutation is classified, so
+      // here its parent reference is taken as it stands, and anything but an id of a known kind is skipped.
+      if (typeof mutation.data === 'object' && mutation.data !== null) {
+        const parent = STORES[mutation.entity].parentOf(mutation.data as never);
+        if (parent && typeof parent.id === 'string' && UUID_TEXT.test(parent.id) && Object.hasOwn(STORES, parent.entity)) {
           want(parent.entity, parent.id);
         }
       }
@@ -232,7 +241,7 @@ export class SyncService {
         const site = typeof siteId === 'string'
           ? siteId
           : typeof pileId === 'string' ? (batch.record('pile', pileId)?.siteId ?? newPileSites.get(pileId)) : undefined;
-        if (site) {
+        if (site && UUID_TEXT.test(site)) {
           codesBySite.set(`${mutation.entity}|${site}`, (codesBySite.get(`${mutation.entity}|${site}`) ?? new Set()).add(code));
         }
       }
@@ -257,7 +266,7 @@ export class SyncService {
     if (earlier) {
       return answer('duplicate', earlier.revision, [], earlier.conflictId ?? undefined);
     }
-    const staged = batch.appliedMutations.find((applied) => applied.mutationId === mutation.mutationId);
+    const staged = batch.appliedMutations.get(mutation.mutationId);
     if (staged) {
       return answer('duplicate', staged.revision);
     }
@@ -281,11 +290,11 @@ export class SyncService {
         deviceId, userId: user.id, baseRevision: mutation.baseRevision, serverRevision: server.revision, deviceOp: mutation.op,
         deviceData: mutation.data ?? null, serverData: server.data, status: 'open',
       });
-      batch.appliedMutations.push({ mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'conflict', revision: server.revision, conflictId });
+      batch.appliedMutations.set(mutation.mutationId, { mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'conflict', revision: server.revision, conflictId });
       return answer('conflict', server.revision, [], conflictId);
     }
     if (decision.write === 'none') {
-      batch.appliedMutations.push({ mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'applied', revision: current?.revision ?? null, conflictId: null });
+      batch.appliedMutations.set(mutation.mutationId, { mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'applied', revision: current?.revision ?? null, conflictId: null });
       return answer('applied', current?.revision ?? null);
     }
 
@@ -331,7 +340,7 @@ export class SyncService {
     });
     batch.changes.set(keyOf(mutation.entity, mutation.id), { entity: mutation.entity, recordId: mutation.id, revision, siteId, isDeleted: deletedAt !== null });
     batch.seenMutationIds.add(mutation.mutationId);
-    batch.appliedMutations.push({ mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'applied', revision, conflictId: null });
+    batch.appliedMutations.set(mutation.mutationId, { mutationId: mutation.mutationId, entity: mutation.entity, recordId: mutation.id, status: 'applied', revision, conflictId: null });
     return answer('applied', revision);
   }
 
@@ -366,15 +375,9 @@ export class SyncService {
         await (STORES[entity] as RecordStore).writeMany([...writes.values()], transaction);
       }
     }
-    if (batch.changes.size > 0) {
-      await ChangeLogEntry.bulkCreate([...batch.changes.values()], { transaction, updateOnDuplicate: ['revision', 'siteId', 'isDeleted', 'updatedAt'] });
-    }
-    if (batch.conflicts.length > 0) {
-      await SyncConflict.bulkCreate(batch.conflicts, { transaction });
-    }
-    if (batch.appliedMutations.length > 0) {
-      await SyncMutation.bulkCreate(batch.appliedMutations.map((applied) => ({ ...applied, deviceId, userId: user.id })), { transaction });
-    }
+    await insertRows(ChangeLogEntry, [...batch.changes.values()], { transaction, updateOnDuplicate: CHANGE_LOG_UPDATES });
+    await insertRows(SyncConflict, batch.conflicts, { transaction });
+    await insertRows(SyncMutation, [...batch.appliedMutations.values()].map((applied) => ({ ...applied, deviceId, userId: user.id })), { transaction });
   }
 
   /** Writes a conflict's chosen version as a new revision. */
@@ -386,8 +389,8 @@ export class SyncService {
     await (STORES[conflict.entity] as RecordStore).writeMany([
       { id: current.id, siteId: current.siteId, data, revision, deletedAt, createdById: current.ownerId, deviceId: conflict.deviceId },
     ], transaction);
-    await ChangeLogEntry.bulkCreate([{ entity: conflict.entity, recordId: current.id, revision, siteId: current.siteId, isDeleted: isDelete }], {
-      transaction, updateOnDuplicate: ['revision', 'siteId', 'isDeleted', 'updatedAt'],
+    await insertRows(ChangeLogEntry, [{ entity: conflict.entity, recordId: current.id, revision, siteId: current.siteId, isDeleted: isDelete }], {
+      transaction, updateOnDuplicate: CHANGE_LOG_UPDATES,
     });
     return revision;
   }

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { Pile } from '../../../server/capture/pile.model';
 import { Sample } from '../../../server/capture/sample.model';
-import { ChangeLogEntry, SyncConflict } from '../../../server/sync/sync.models';
+import { ChangeLogEntry, SyncConflict, SyncMutation } from '../../../server/sync/sync.models';
 import type { Mutation, PushResponse } from '../../../shared/sync/protocol';
 import { createSyncTestApp, IF, newPanTest, newPile, newSample, upsert, type SyncTestApp } from './support/sync-test-app';
 
@@ -83,6 +83,67 @@ describe('POST /api/sync/push', () => {
       const pile = newPile();
       const { results } = await push('sampler', [upsert('pile', pile), upsert('sample', newSample(pile.id))]);
       expect(results.map((result) => result.status)).toEqual(['applied', 'applied']);
+    });
+  });
+
+  describe('when a batch is full (500 mutations)', () => {
+    it('stores every record, one change-log row and one receipt each, in one transaction', async () => {
+      // Arrange: a pile and 499 samples of it, as a phone sends a day's work.
+      const pile = newPile();
+      const samples = Array.from({ length: 499 }, () => newSample(pile.id));
+      const batch = [upsert('pile', pile), ...samples.map((sample) => upsert('sample', sample))];
+
+      // Act
+      const { results } = await push('sampler', batch, 'device-full');
+      const again = await push('sampler', batch, 'device-full');
+
+      // Assert
+      expect(results.every((result) => result.status === 'applied')).toBe(true);
+      const revisions = results.map((result) => result.revision as number);
+      expect(new Set(revisions).size).toBe(500);
+      expect(revisions).toEqual([...revisions].sort((a, b) => a - b));
+      expect(await Sample.count({ where: { pileId: pile.id } })).toBe(499);
+      expect(await ChangeLogEntry.count({ where: { recordId: [pile.id, ...samples.map((sample) => sample.id)] } })).toBe(500);
+      expect(await SyncMutation.count({ where: { mutationId: batch.map((mutation) => mutation.mutationId) } })).toBe(500);
+      expect(again.results.map((result) => result.status)).toEqual(batch.map(() => 'duplicate'));
+      expect(again.results.map((result) => result.revision)).toEqual(revisions);
+      const stored = await Sample.findByPk(samples[7].id);
+      expect(stored?.location).toEqual(samples[7].location);
+      expect(stored?.collectedAt.toISOString()).toBe(samples[7].collectedAt);
+    });
+  });
+
+  describe('when a record is changed', () => {
+    it('keeps its createdAt, moves its updatedAt and its change-log row to the new revision', async () => {
+      const pile = newPile();
+      const [created] = (await push('sampler', [upsert('pile', pile)])).results;
+      const before = await Pile.findByPk(pile.id);
+      await new Promise((resolve) => setTimeout(resolve, 5));
+
+      const [changed] = (await push('sampler', [upsert('pile', { ...pile, heightM: 2.9 }, created.revision)])).results;
+
+      const after = await Pile.findByPk(pile.id);
+      expect(changed).toMatchObject({ status: 'applied' });
+      expect(after?.heightM).toBe(2.9);
+      expect(after?.revision).toBe(changed.revision);
+      expect(after?.createdAt?.getTime()).toBe(before?.createdAt?.getTime());
+      expect(after?.updatedAt?.getTime()).toBeGreaterThan(before?.updatedAt?.getTime() as number);
+      const entry = await ChangeLogEntry.findOne({ where: { entity: 'pile', recordId: pile.id } });
+      expect(entry).toMatchObject({ revision: changed.revision, isDeleted: false });
+    });
+  });
+
+  describe('when a reference in the data is not an id', () => {
+    it('rejects that mutation with its reason and applies the rest (no lookup by a non-id, which PostgreSQL refuses)', async () => {
+      const good = newPile();
+      const badSite = newPile({ siteId: 'not-a-site-id' });
+      const badParent = newSample('not-a-pile-id');
+      const { results } = await push('sampler', [upsert('pile', badSite), upsert('sample', badParent), upsert('pile', good)]);
+
+      expect(results.map((result) => result.status)).toEqual(['rejected', 'rejected', 'applied']);
+      expect(results[0].errors).toEqual([expect.objectContaining({ path: 'siteId' })]);
+      expect(results[1].errors).toEqual([expect.objectContaining({ path: 'pileId' })]);
+      expect(await Pile.count({ where: { id: [good.id, badSite.id] } })).toBe(1);
     });
   });
 
