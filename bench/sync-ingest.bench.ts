@@ -138,12 +138,17 @@ async function main(): Promise<void> {
   const api = await startApi();
   const rawRates: number[] = [];
   const apiRates: number[] = [];
-  for (let round = 1; round <= ROUNDS; round += 1) {
-    rawRates.push(await raw.round(round));
-    apiRates.push(await api.round(round));
+  let serverPeakRssMb: number | null;
+  try {
+    for (let round = 1; round <= ROUNDS; round += 1) {
+      rawRates.push(await raw.round(round));
+      apiRates.push(await api.round(round));
+    }
+  } finally {
+    // A failed round must not leave the server process running behind the benchmark.
+    serverPeakRssMb = await api.stop();
+    await raw.stop();
   }
-  const serverPeakRssMb = await api.stop();
-  await raw.stop();
   const rounds = rawRates.map((rate, index) => `${Math.round(apiRates[index])}/${Math.round(rate)}`).join(', ');
   reportFigure({
     group: 'sync', name: `push ${TOTAL.toLocaleString('en')} sample mutations, batches of ${BATCH}, loopback (median of ${ROUNDS} rounds)`,
