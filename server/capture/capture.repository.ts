@@ -1,6 +1,7 @@
 import { Op, type Model, type WhereOptions } from 'sequelize';
 import { pileSchema, sampleSchema, panTestSchema, type EntityData, type PileData, type SampleData } from '../../shared/sync/protocol';
 import { tableRecordStore, type RecordStore } from '../sync/record-store';
+import { RevisionCache, perDatabase, readDataRevision } from './data-revision';
 import { PanTest } from './pan-test.model';
 import { Pile } from './pile.model';
 import { Sample } from './sample.model';
@@ -61,6 +62,33 @@ function toView<T>(row: Model, fields: readonly string[], dateFields: readonly s
 const PILE_FIELDS = Object.keys(pileSchema.shape);
 const SAMPLE_FIELDS = Object.keys(sampleSchema.shape);
 
+/** A stored date as ISO 8601 text: SQLite hands raw rows text (`2026-11-12 07:30:00.000 +00:00`), PostgreSQL a Date. */
+function isoOf(value: unknown): string {
+  return (value instanceof Date ? value : new Date(value as string)).toISOString();
+}
+
+/**
+ * A sample as the read routes show it (the same object `toView` makes from a model instance),
+ * from a raw row: reading rows raw skips Sequelize's per-instance work, which cost about 0.2 ms a
+ * row (4 s for a site of 20,000 samples). SQLite gives JSON columns as text, PostgreSQL parsed.
+ */
+export function sampleViewOfRow(row: Record<string, unknown>): RecordView<SampleData> {
+  const view: Record<string, unknown> = {};
+  for (const field of SAMPLE_FIELDS) {
+    view[field] = row[field];
+  }
+  const location = row['location'];
+  view['location'] = typeof location === 'string' ? JSON.parse(location) : (location ?? null);
+  view['collectedAt'] = isoOf(row['collectedAt']);
+  view['revision'] = Number(row['revision']);
+  view['updatedAt'] = isoOf(row['updatedAt']);
+  view['createdById'] = row['createdById'];
+  return view as RecordView<SampleData>;
+}
+
+/** The columns `sampleViewOfRow` reads. */
+export const SAMPLE_VIEW_COLUMNS: readonly string[] = [...SAMPLE_FIELDS, 'revision', 'updatedAt', 'createdById'];
+
 /** Live piles of some sites, by code. */
 export async function findPiles(siteIds: 'all' | readonly string[], filter: { siteId?: string; limit: number; offset: number }): Promise<Page<RecordView<PileData>>> {
   const where: WhereOptions = { deletedAt: null, ...siteWhere(siteIds, filter.siteId) };
@@ -86,8 +114,29 @@ export interface SampleFilter {
   readonly offset: number;
 }
 
+/**
+ * How many samples match a filter, kept per data revision: counting is a scan of the site's index
+ * entries (about 4 ms at 20,000 samples), repeated for every page otherwise. The key is the
+ * filter and the sites it may see; any write of a sample anywhere moves the revision.
+ */
+const sampleTotals = perDatabase(() => new RevisionCache<number>(500));
+
 /** Live samples of some sites, newest first, with the filters applied. */
 export async function findSamples(siteIds: 'all' | readonly string[], filter: SampleFilter): Promise<Page<RecordView<SampleData>>> {
+  const where = sampleWhere(siteIds, filter);
+  const { limit, offset, ...filters } = filter;
+  const totalKey = JSON.stringify([siteIds === 'all' ? 'all' : [...siteIds].sort(), filters]);
+  // The revision is read before the rows, so the rows are at least as new as the total kept under it.
+  const revision = await readDataRevision();
+  const [rows, total] = await Promise.all([
+    Sample.findAll({ attributes: [...SAMPLE_VIEW_COLUMNS], where, order: [['collectedAt', 'DESC'], ['code', 'ASC']], limit, offset, raw: true }),
+    sampleTotals().get(totalKey, revision, () => Sample.count({ where })),
+  ]);
+  return { items: (rows as unknown as Record<string, unknown>[]).map(sampleViewOfRow), total, limit, offset };
+}
+
+/** The WHERE of a sample list: live samples of the sites the caller may read, with the filters applied. */
+function sampleWhere(siteIds: 'all' | readonly string[], filter: SampleFilter): WhereOptions {
   const where: Record<string | symbol, unknown> = { deletedAt: null, ...siteWhere(siteIds, filter.siteId) };
   if (filter.pileId) {
     where['pileId'] = filter.pileId;
@@ -104,8 +153,7 @@ export async function findSamples(siteIds: 'all' | readonly string[], filter: Sa
       ...(filter.collectedTo ? { [Op.lte]: new Date(filter.collectedTo) } : {}),
     };
   }
-  const { rows, count } = await Sample.findAndCountAll({ where, order: [['collectedAt', 'DESC'], ['code', 'ASC']], limit: filter.limit, offset: filter.offset });
-  return { items: rows.map((row) => toView<SampleData>(row, SAMPLE_FIELDS, ['collectedAt'])), total: count, limit: filter.limit, offset: filter.offset };
+  return where;
 }
 
 function siteWhere(siteIds: 'all' | readonly string[], siteId: string | undefined): Record<string, unknown> {

@@ -1,10 +1,10 @@
-import type { PileData, SampleData } from '../../shared/sync/protocol';
-import { findPile, findPiles, findSamples, type RecordView } from '../capture/capture.repository';
+import type { PileData } from '../../shared/sync/protocol';
+import { findPile, findPiles, type RecordView } from '../capture/capture.repository';
 import { Site } from '../sites/site.model';
 import { SiteImage } from './site-image.model';
 
-// Reads are not paged here: a site holds tens of piles and up to some ten thousand samples, which
-// the review desk shows and maps all at once (the capture routes page for devices).
+// Piles are not paged here: a site holds tens of them, which the review desk shows and maps all at
+// once. Its samples come from the site's table (site-samples.ts).
 const EVERYTHING = Number.MAX_SAFE_INTEGER;
 
 /** One live pile, or null (the capture component's own read). */
@@ -15,11 +15,6 @@ export function pileById(id: string): Promise<RecordView<PileData> | null> {
 /** Every live pile of a site, by code. */
 export async function pilesOfSite(siteId: string): Promise<readonly RecordView<PileData>[]> {
   return (await findPiles([siteId], { siteId, limit: EVERYTHING, offset: 0 })).items;
-}
-
-/** Every live sample of one pile, or of a whole site. */
-export async function samplesOf(where: { siteId: string; pileId?: string }): Promise<readonly RecordView<SampleData>[]> {
-  return (await findSamples([where.siteId], { siteId: where.siteId, pileId: where.pileId, limit: EVERYTHING, offset: 0 })).items;
 }
 
 /** A site's id, code and name within an organisation, or null. */

@@ -10,6 +10,8 @@ import type { ReviewService } from './review.service';
 import { MAX_SITE_IMAGE_BYTES, type SiteImageService } from './site-image.service';
 
 const noQuery = z.strictObject({});
+/** `view=map`: the compact answer the site map reads; without it, the full review. */
+const siteReviewQuery = z.strictObject({ view: z.enum(['full', 'map'], 'view is full or map').optional() });
 const pileParams = z.strictObject({ id: z.uuid('Not a pile id') });
 const siteParams = z.strictObject({ siteId: z.uuid('Not a site id') });
 const imageSiteParams = z.strictObject({ id: z.uuid('Not a site id') });
@@ -59,7 +61,7 @@ function uploadSiteImage(): RequestHandler {
 }
 
 /**
- * The review desk: `GET /api/piles/:id/estimate`, `GET /api/review/sites/:siteId`,
+ * The review desk: `GET /api/piles/:id/estimate`, `GET /api/review/sites/:siteId[?view=map]`,
  * `PUT|GET /api/sites/:id/image`, `GET /api/sites/:id/image-info` (signed in) and
  * `clientConfigRoutes` (public).
  */
@@ -76,8 +78,8 @@ export function reviewRoutes(review: ReviewService, siteImages: SiteImageService
   router.get('/review/sites/:siteId', async (request, response) => {
     const user = currentUser(request);
     const { siteId } = parseOrThrow(siteParams, request.params, 'site id');
-    parseOrThrow(noQuery, request.query, 'query');
-    response.json(await review.siteReview(user, siteId));
+    const { view } = parseOrThrow(siteReviewQuery, request.query, 'query');
+    response.json(view === 'map' ? await review.siteMap(user, siteId) : await review.siteReview(user, siteId));
   });
 
   router.put('/sites/:id/image', uploadSiteImage(), async (request, response) => {

@@ -6,9 +6,10 @@ import type { EconomicsService } from '../economics/economics.service';
 import { AppError } from '../lib/errors';
 import { engineErrorDetails } from '../trials/trial-figures';
 import type { TrialsService } from '../trials/trials.service';
-import { buildShortlist, estimatePile, type Economics, type LonLat, type ScenarioRanks, type ShortlistPile } from '../../shared/engine';
+import { buildShortlist, type Economics, type LonLat, type ScenarioRanks, type ShortlistPile } from '../../shared/engine';
 import type { PileData } from '../../shared/sync/protocol';
-import { sampleGradesForSitePiles } from './sample-grades';
+import { estimatePileKept } from '../review/estimate-cache';
+import { sampleGradesForSitePiles, type PileSampleGrades } from './sample-grades';
 
 /** Where the recovery in force came from. */
 export type RecoverySource = 'trials' | 'default' | 'query';
@@ -108,8 +109,8 @@ export function createShortlistService({ economics, trials }: { economics: Econo
       const rows: ShortlistRow[] = [];
       const rankable: ShortlistPile[] = [];
       for (const pile of piles) {
-        const pileGrades = grades.byPile.get(pile.id) ?? { samples: [], withoutGrade: 0 };
-        const estimate = estimatePile(
+        const pileGrades = grades.byPile.get(pile.id) as PileSampleGrades;
+        const estimate = estimatePileKept(
           {
             material: pile.material, footprint: pile.footprint ?? undefined, heightM: pile.heightM ?? undefined, shapeModel: pile.shapeModel,
             angleOfReposeDeg: pile.angleOfReposeDeg, bulkDensityTPerM3: pile.bulkDensityTPerM3, moisturePct: pile.moisturePct,
@@ -117,6 +118,7 @@ export function createShortlistService({ economics, trials }: { economics: Econo
           },
           pileGrades.samples,
           { confidenceLevel: parameters.confidenceLevel, calibration: grades.calibration },
+          pileGrades.samplesDigest,
         );
         const reasons: string[] = [];
         const value = estimate.ok ? estimate.value : null;
