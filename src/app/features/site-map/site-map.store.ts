@@ -5,14 +5,14 @@ import type { PileEstimate } from '../../../../shared/engine';
 import type { PileData, SampleData } from '../../../../shared/sync/protocol';
 import { toApiProblem } from '../../core/http/api-error';
 
-/** A pile on the map: its record and the engine's estimate (null when it cannot be estimated yet). */
+/** A pile on the map: where it lies and the engine's figures its card and shading show (null when it cannot be estimated yet). */
 export interface MapPile {
-  readonly pile: PileData & { readonly revision: number };
-  readonly estimate: PileEstimate | null;
+  readonly pile: Pick<PileData, 'id' | 'code' | 'material' | 'footprint'>;
+  readonly estimate: Pick<PileEstimate, 'dryTonnes' | 'containedAuG' | 'grade'> | null;
 }
 
 /** A sample on the map with its grade from the engine (null: no assay or pan test yet). */
-export type MapSample = SampleData & { readonly pileCode: string; readonly gradeGpt: number | null; readonly gradeSource: string | null };
+export type MapSample = Pick<SampleData, 'code' | 'sampleType' | 'location'> & { readonly gradeGpt: number | null };
 
 /** The site image record: where the picture lies and its versioned URL. */
 export interface MapImage {
@@ -23,12 +23,42 @@ export interface MapImage {
   readonly url: string;
 }
 
-/** What `GET /api/review/sites/:siteId` answers. */
+/** A site as the map holds it: piles and samples decoded from `GET /api/review/sites/:siteId?view=map`. */
 export interface SiteReview {
   readonly site: { readonly id: string; readonly code: string; readonly name: string };
   readonly image: MapImage | null;
   readonly piles: readonly MapPile[];
   readonly samples: readonly MapSample[];
+}
+
+/** One sample as the map view sends it: code, type, longitude, latitude (null: no location) and grade. */
+export type SiteMapSampleRow = readonly [code: string, sampleType: SampleData['sampleType'], lon: number | null, lat: number | null, gradeGpt: number | null];
+
+/** What `GET /api/review/sites/:siteId?view=map` answers: the site review cut to what the map draws, a row per sample. */
+export interface SiteMapAnswer {
+  readonly site: SiteReview['site'];
+  readonly image: MapImage | null;
+  readonly piles: readonly MapPile[];
+  readonly sampleFields: readonly string[];
+  readonly samples: readonly SiteMapSampleRow[];
+}
+
+/** The columns the decoding below expects, in this order. */
+const SAMPLE_FIELDS = ['code', 'sampleType', 'lon', 'lat', 'gradeGpt'];
+
+/** Turns the map view's sample rows back into objects; refuses an answer whose columns are not the ones expected. */
+export function decodeSiteMap(answer: SiteMapAnswer): SiteReview {
+  if (answer.sampleFields.join() !== SAMPLE_FIELDS.join()) {
+    throw new Error(`unexpected sample columns: ${answer.sampleFields.join(', ')}`);
+  }
+  return {
+    site: answer.site,
+    image: answer.image,
+    piles: answer.piles,
+    samples: answer.samples.map(([code, sampleType, lon, lat, gradeGpt]) => ({
+      code, sampleType, gradeGpt, location: lon === null || lat === null ? null : { type: 'Point', coordinates: [lon, lat] },
+    })),
+  };
 }
 
 /** A pile's line of `GET /api/shortlist?site=…` as the map uses it: the engine's net value and rank, or why it has none. */
@@ -70,8 +100,8 @@ export class SiteMapStore {
   private loadTicket = 0;
 
   /** One site's review, without keeping it (to find the first site with data). */
-  fetchReview(siteId: string): Promise<SiteReview> {
-    return firstValueFrom(this.http.get<SiteReview>(`/api/review/sites/${siteId}`));
+  async fetchReview(siteId: string): Promise<SiteReview> {
+    return decodeSiteMap(await firstValueFrom(this.http.get<SiteMapAnswer>(`/api/review/sites/${siteId}`, { params: new HttpParams().set('view', 'map') })));
   }
 
   /** Shows a review already fetched. */
