@@ -3,7 +3,10 @@
  * as `npm start` runs it) holding the seeded synthetic site (full: 50 piles, 20,000 samples,
  * 2,000 photos). Each read is measured beside `GET /api/health` on the same server in the same run
  * (helmet, logging and JSON like every route, plus one `SELECT 1`), so the ratio is what our route
- * costs over the framework's floor. Goal (issue 9): p99 < 50 ms at 50 connections for paged reads.
+ * costs over the framework's floor; `GET /api/me` is measured too, as the floor of any signed-in
+ * read (token check and user loaded fresh). Goal (issue 9): p99 < 50 ms at 50 connections for
+ * paged reads. Also the size of the site map's answer beside the full review, and the shortlist's
+ * first answer after a write (when the kept site data is read again).
  * Every run is bounded in time (seconds per route); nothing here asserts a timing.
  */
 import autocannon from 'autocannon';
@@ -54,12 +57,17 @@ async function main(): Promise<void> {
       return result;
     };
     const baseline = await load(geologist, [{ path: '/api/health' }]);
+    // GET /api/me is the floor of any signed-in read: the token check and the user loaded fresh
+    // (three small queries), plus the profile's two; a paged read cannot be cheaper than that.
     const routes = [
+      { name: 'GET /api/me (sign-in floor of every signed-in read)', token: geologist, requests: [{ path: '/api/me' }], isPagedRead: false },
       { name: `GET /api/samples paged (${PAGE} of ${size.samples.toLocaleString('en')}, pages all over)`, token: geologist, requests: spread(40, (index) => `/api/samples?siteId=${site}&limit=${PAGE}&offset=${((index * 37) % pages) * PAGE}`), isPagedRead: true },
       { name: 'GET /api/samples filtered (type + code prefix + date range), paged', token: geologist, requests: spread(40, (index) => `/api/samples?siteId=${site}&sampleType=routine&codePrefix=SY-&collectedFrom=2025-01-06T00:00:00Z&collectedTo=2030-01-01T00:00:00Z&limit=${PAGE}&offset=${((index * 37) % pages) * PAGE}`), isPagedRead: true },
       { name: 'GET /api/sync/pull (500 changes a page, cursors all over)', token: geologist, requests: spread(20, (index) => `/api/sync/pull?since=${Math.floor((index * seeded.applied) / 20)}&limit=500`), isPagedRead: true },
-      // The shortlist ranks the whole site per request (seconds at full size), so fewer connections keep it inside the time bound.
-      { name: `GET /api/shortlist (${size.piles} piles ranked from ${size.samples.toLocaleString('en')} samples)`, token: manager, requests: [{ path: `/api/shortlist?site=${site}` }], isPagedRead: false, connections: 4 },
+      { name: `GET /api/shortlist (${size.piles} piles ranked from ${size.samples.toLocaleString('en')} samples)`, token: manager, requests: [{ path: `/api/shortlist?site=${site}` }], isPagedRead: false },
+      // Whole-site answers of a megabyte and more: fewer connections keep them inside the time bound.
+      { name: `GET /api/review/sites/:id?view=map (site map, ${size.samples.toLocaleString('en')} samples)`, token: geologist, requests: [{ path: `/api/review/sites/${site}?view=map` }], isPagedRead: false, connections: 10 },
+      { name: `GET /api/review/sites/:id (full review, ${size.samples.toLocaleString('en')} samples)`, token: geologist, requests: [{ path: `/api/review/sites/${site}` }], isPagedRead: false, connections: 4 },
     ];
     for (const route of routes) {
       const connections = route.connections ?? CONNECTIONS;
@@ -80,6 +88,32 @@ async function main(): Promise<void> {
         ...(route.isPagedRead ? { goal: `< 50 ms at ${CONNECTIONS} connections (full size)` } : {}),
       });
     }
+
+    // Payload of the site map's answer beside the full review it was cut from.
+    const bytesOf = async (path: string) => (await (await fetch(`${server.url}${path}`, { headers: { authorization: `Bearer ${geologist}` } })).arrayBuffer()).byteLength;
+    const fullBytes = await bytesOf(`/api/review/sites/${site}`);
+    const mapBytes = await bytesOf(`/api/review/sites/${site}?view=map`);
+    process.stdout.write(`site review payload: full ${fullBytes.toLocaleString('en')} bytes, map view ${mapBytes.toLocaleString('en')} bytes\n`);
+    reportFigure({ group: 'api', name: `GET /api/review/sites/:id?view=map payload (${size.samples.toLocaleString('en')} samples)`, value: mapBytes / 1e6, unit: 'MB', baselineName: 'the full review of the same site', baselineValue: fullBytes / 1e6, higherIsBetter: false });
+
+    // After a write, the first answer reads the site again (samples kept per data revision): one
+    // request alone, beside the warm answer measured under load above.
+    const pileList = (await (await fetch(`${server.url}/api/piles?siteId=${site}&limit=1`, { headers: { authorization: `Bearer ${geologist}` } })).json()) as { items: { id: string; revision: number; notes: string }[] };
+    const [pile] = pileList.items;
+    const edited = await fetch(`${server.url}/api/piles/${pile.id}`, {
+      method: 'PATCH', headers: { authorization: `Bearer ${geologist}`, 'content-type': 'application/json' },
+      body: JSON.stringify({ baseRevision: pile.revision, changes: { notes: `${pile.notes} (edited by the bench)` } }),
+    });
+    if (!edited.ok) throw new Error(`pile edit: ${edited.status} ${(await edited.text()).slice(0, 200)}`);
+    const coldStarted = Date.now();
+    const cold = await fetch(`${server.url}/api/shortlist?site=${site}`, { headers: { authorization: `Bearer ${manager}` } });
+    await cold.arrayBuffer();
+    const coldMs = Date.now() - coldStarted;
+    const warmStarted = Date.now();
+    await (await fetch(`${server.url}/api/shortlist?site=${site}`, { headers: { authorization: `Bearer ${manager}` } })).arrayBuffer();
+    const warmMs = Date.now() - warmStarted;
+    process.stdout.write(`GET /api/shortlist alone: first after a pile edit ${coldMs} ms, next ${warmMs} ms\n`);
+    reportFigure({ group: 'api', name: 'GET /api/shortlist, first answer after a pile edit (site read again), one request alone', value: coldMs, unit: 'ms', baselineName: 'the next answer (kept site data)', baselineValue: Math.max(warmMs, 1), higherIsBetter: false });
   } finally {
     await server.stop();
   }

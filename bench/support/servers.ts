@@ -9,6 +9,8 @@ import { join } from 'node:path';
 /** The repository root (benchmarks run from anywhere). */
 export const ROOT = join(__dirname, '..', '..');
 export const STATIC_DIR = join(ROOT, 'dist/heapsight/browser');
+/** The built server (`npm run build`); BENCH_SERVER_DIR points at another build, e.g. one made with `tsc --outDir`. */
+export const SERVER_DIR = process.env['BENCH_SERVER_DIR'] ?? join(ROOT, 'dist/node');
 
 /** A server started for a benchmark, with its URL and how to stop it. */
 export interface BenchServer {
@@ -25,7 +27,7 @@ export interface BenchServer {
  */
 export async function startHeapsight(env: Record<string, string> = {}, givenDataDir?: string): Promise<BenchServer> {
   const dataDir = givenDataDir ?? mkdtempSync(join(tmpdir(), 'heapsight-bench-'));
-  const child = spawn(process.execPath, [join(ROOT, 'dist/node/server/main.js')], {
+  const child = spawn(process.execPath, [join(SERVER_DIR, 'server/main.js')], {
     cwd: ROOT,
     env: { ...process.env, NODE_ENV: 'production', DEMO: '1', PORT: '0', DATA_DIR: dataDir, LOG_LEVEL: 'warn', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
