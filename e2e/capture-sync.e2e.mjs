@@ -121,7 +121,9 @@ describe('capture and sync', () => {
       await page.waitForURL((url) => url.pathname === '/capture');
       const pending = page.getByRole('listitem').filter({ has: page.getByLabel('waiting to sync') }).filter({ hasText: ' kg' });
       await eventually(async () => (await pending.count()) === index + 1, { what: `sample ${index + 1} in the list` });
-      sampleCodes.push((await pending.nth(index).locator('strong').textContent()).trim());
+      // The list is newest first: the sample just saved is the one not yet counted.
+      const shown = (await pending.locator('strong').allTextContents()).map((code) => code.trim());
+      sampleCodes.push(shown.find((code) => !sampleCodes.includes(code)));
     }
     assert.equal(new Set(sampleCodes).size, 2);
 

@@ -133,7 +133,9 @@ describe('lab loop', () => {
     // The assays are on the bags, and the QA/QC verdict is shown in words.
     await page.getByTestId('batch-status').filter({ hasText: 'Results in' }).waitFor();
     const first = batch.items.find((item) => item.itemType === 'routine');
-    await page.getByRole('row', { name: new RegExp(`${first.labCode} .*${gradeOf(first.sampleId).replace('.', '\\.')}`) }).waitFor();
+    // The bag list (the rows with an assay cell), not the import report above it, which names the same bag.
+    await page.getByRole('row').filter({ has: page.getByTestId('assay') })
+      .filter({ hasText: new RegExp(`${first.labCode}.*${gradeOf(first.sampleId).replace('.', '\\.')}`) }).waitFor();
     await page.getByTestId('batch-verdict').filter({ hasText: /Batch verdict: (Pass|Fail|Warn)/ }).waitFor();
     const assays = await page.getByTestId('assay').allTextContents();
     assert.equal(assays.filter((text) => text.trim() === '—').length, 0, 'every bag has its assay');
