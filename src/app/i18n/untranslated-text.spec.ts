@@ -40,8 +40,6 @@ const NOT_YET_TRANSLATED = new Set([
   'src/app/features/capture/pages/pan-test-form/pan-test-form.ts',
   'src/app/features/capture/pages/pile-form/pile-form.ts',
   'src/app/features/capture/pages/sample-form/sample-form.ts',
-  'src/app/features/qaqc/pages/calibration-page/calibration-page.ts',
-  'src/app/features/qaqc/pages/qaqc-page/qaqc-page.ts',
   'src/app/features/safety/pages/safety-page/safety-page.ts',
   'src/app/features/samples/pages/samples-page/samples-page.html',
   'src/app/features/shortlist/components/sensitivity-chart/sensitivity-chart.ts',

@@ -1,6 +1,7 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
+import type { ProblemKeys } from '../sign-in/problem-text';
 
 /** A QA/QC verdict as the server gives it. */
 export type QcVerdict = 'pass' | 'warn' | 'fail' | 'no-result' | 'unknown-standard' | 'no-qc';
@@ -19,7 +20,7 @@ export interface SiteCalibration {
   readonly siteId: string;
   readonly isApplied: boolean;
   readonly fit: { slope: number; interceptGpt: number; n: number; r2: number; residualSdGpt: number; panRangeGpt: [number, number]; warnings: { code: string; message: string }[] } | null;
-  readonly refusals: readonly { code: string; message: string }[];
+  readonly refusals: readonly { code: string; message: string; details?: Readonly<Record<string, unknown>> }[];
   readonly points: readonly { sampleId: string; code: string; panGpt: number; assayGpt: number }[];
 }
 
@@ -41,12 +42,25 @@ export class QaqcStore {
   }
 }
 
-/** Icon and words for a verdict, so it never rests on colour alone. */
-export const VERDICT_LABELS: Record<QcVerdict, { icon: string; text: string }> = {
-  pass: { icon: 'check_circle', text: 'Pass' },
-  warn: { icon: 'warning', text: 'Warn' },
-  fail: { icon: 'cancel', text: 'Fail' },
-  'no-result': { icon: 'hourglass_empty', text: 'No result yet' },
-  'unknown-standard': { icon: 'help', text: 'Unknown standard' },
-  'no-qc': { icon: 'remove', text: 'No QA/QC items' },
+/** Icon and words (translation key) for a verdict, so it never rests on colour alone. */
+export const VERDICT_LABELS: Record<QcVerdict, { icon: string; key: string }> = {
+  pass: { icon: 'check_circle', key: 'qaqc.verdict.pass' },
+  warn: { icon: 'warning', key: 'qaqc.verdict.warn' },
+  fail: { icon: 'cancel', key: 'qaqc.verdict.fail' },
+  'no-result': { icon: 'hourglass_empty', key: 'qaqc.verdict.noResult' },
+  'unknown-standard': { icon: 'help', key: 'qaqc.verdict.unknownStandard' },
+  'no-qc': { icon: 'remove', key: 'qaqc.verdict.noQc' },
+};
+
+/**
+ * The refusals these pages explain in the reader's language, by the API's error code; a validation
+ * failure or a conflict keeps the server's words, which name the exact problem.
+ */
+export const QAQC_PROBLEMS: ProblemKeys = {
+  offline: 'qaqc.problems.offline',
+  unauthenticated: 'qaqc.problems.signIn',
+  token_expired: 'qaqc.problems.signIn',
+  forbidden: 'qaqc.problems.forbidden',
+  not_found: 'qaqc.problems.notFound',
+  internal: 'qaqc.problems.internal',
 };

@@ -5,45 +5,49 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { AuthSession } from '../../../../core/auth/auth-session';
 import { toApiProblem } from '../../../../core/http/api-error';
 import { openingSite, rememberSiteId, rememberedSiteId } from '../../../../core/site-choice/remembered-site';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
+import { problemText } from '../../../sign-in/problem-text';
 import { ChartCanvas } from '../../components/chart/chart-canvas';
-import { blankChart, duplicateChart, standardChart } from '../../qaqc-charts';
-import { QaqcStore, VERDICT_LABELS, type SiteQaqc } from '../../qaqc.store';
+import { blankChart, duplicateChart, standardChart, type ChartWords } from '../../qaqc-charts';
+import { QAQC_PROBLEMS, QaqcStore, VERDICT_LABELS, type QcVerdict, type SiteQaqc } from '../../qaqc.store';
 
 /** `QA/QC` (geologist): duplicate pairs, blank and standard control charts, flagged batches. */
 @Component({
   selector: 'hs-qaqc-page',
-  imports: [ChartCanvas, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, RouterLink],
+  imports: [ChartCanvas, FormsModule, LOCALE_FORMAT_PIPES, MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule, RouterLink, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1><mat-icon aria-hidden="true">rule</mat-icon> QA/QC</h1>
+      <h1><mat-icon aria-hidden="true">rule</mat-icon> {{ 'qaqc.page.title' | transloco }}</h1>
       <div class="row">
         <mat-form-field>
-          <mat-label>Site</mat-label>
+          <mat-label>{{ 'qaqc.page.site' | transloco }}</mat-label>
           <mat-select [ngModel]="siteId()" (ngModelChange)="choose($event)" name="site">
             @for (site of sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} · {{ site.name }}</mat-option> }
           </mat-select>
         </mat-form-field>
-        <a mat-stroked-button routerLink="/qaqc/calibration" class="touch"><mat-icon>show_chart</mat-icon> Calibration</a>
+        <a mat-stroked-button routerLink="/qaqc/calibration" class="touch"><mat-icon>show_chart</mat-icon> {{ 'qaqc.page.calibration' | transloco }}</a>
       </div>
       @if (problem(); as text) { <p class="problem" role="alert"><mat-icon aria-hidden="true">error</mat-icon> {{ text }}</p> }
       @if (data(); as data) {
-        <h2>Flagged batches</h2>
-        <ul class="list" aria-label="Batches and their verdicts">
+        <h2>{{ 'qaqc.page.flaggedTitle' | transloco }}</h2>
+        <ul class="list" [attr.aria-label]="'qaqc.page.batchesLabel' | transloco">
           @for (batch of data.batches; track batch.batchId) {
-            <li><mat-icon aria-hidden="true">{{ labels[batch.verdict].icon }}</mat-icon> <strong>{{ batch.batchCode }}</strong>: {{ labels[batch.verdict].text }}{{ batch.reasons.length ? ' — ' + batch.reasons.join('; ') : '' }}</li>
-          } @empty { <li class="hs-muted">No batches with results yet.</li> }
+            <li><mat-icon aria-hidden="true">{{ labels[batch.verdict].icon }}</mat-icon> <strong>{{ batch.batchCode }}</strong>: {{ labels[batch.verdict].key | transloco }}{{ reasons().get(batch.batchCode) ? ' — ' + reasons().get(batch.batchCode) : '' }}</li>
+          } @empty { <li class="hs-muted">{{ 'qaqc.page.noBatches' | transloco }}</li> }
         </ul>
-        <p class="hs-muted">Points: circle = pass, triangle = warn, cross = fail.</p>
-        <h2>Duplicate pairs</h2>
-        <hs-chart-canvas [config]="duplicates()" [label]="'Duplicate against original, ' + data.duplicates.length + ' pairs, with y = x and HARD 30 % lines'" />
-        <h2>Blanks</h2>
-        <hs-chart-canvas [config]="blanks()" [label]="'Blank results by batch order, ' + data.blanks.length + ' blanks, fail line at 5 × detection limit'" />
+        <p class="hs-muted">{{ 'qaqc.page.pointShapes' | transloco }}</p>
+        <h2>{{ 'qaqc.page.duplicatesTitle' | transloco }}</h2>
+        <hs-chart-canvas [config]="duplicates()" [label]="'qaqc.page.duplicatesChart' | transloco: { count: data.duplicates.length, percent: hardPercent() }" />
+        <h2>{{ 'qaqc.page.blanksTitle' | transloco }}</h2>
+        <hs-chart-canvas [config]="blanks()" [label]="'qaqc.page.blanksChart' | transloco: { count: data.blanks.length }" />
         @for (chart of standards(); track chart.code) {
-          <h2>Standard {{ chart.code }} ({{ chart.expectedGpt }} ± {{ chart.sdGpt }} g/t)</h2>
-          <hs-chart-canvas [config]="chart.config" [label]="'Control chart of ' + chart.code + ' with ±2 and ±3 SD lines'" />
+          <h2>{{ 'qaqc.page.standardTitle' | transloco: { code: chart.code, expected: (chart.expectedGpt | hsNumber: '1.0-4'), sd: (chart.sdGpt | hsNumber: '1.0-4') } }}</h2>
+          <hs-chart-canvas [config]="chart.config" [label]="'qaqc.page.standardChart' | transloco: { code: chart.code }" />
         }
       }
     </section>
@@ -59,20 +63,30 @@ import { QaqcStore, VERDICT_LABELS, type SiteQaqc } from '../../qaqc.store';
 export default class QaqcPage implements OnInit {
   private readonly session = inject(AuthSession);
   private readonly store = inject(QaqcStore);
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
   protected readonly labels = VERDICT_LABELS;
   protected readonly sites = computed(() => this.session.user()?.sites ?? []);
   protected readonly siteId = signal('');
   protected readonly data = signal<SiteQaqc | null>(null);
   protected readonly problem = signal<string | null>(null);
-  protected readonly duplicates = computed(() => duplicateChart(this.data()?.duplicates ?? []));
-  protected readonly blanks = computed(() => blankChart(this.data()?.blanks ?? []));
+  /** The charts' words in the active language: reading the language here redraws the charts on a switch. */
+  private readonly words = computed<ChartWords>(() => {
+    this.language.active();
+    return { translate: (key, params) => this.transloco.translate(key, params), locale: this.language.locale() };
+  });
+  protected readonly duplicates = computed(() => duplicateChart(this.data()?.duplicates ?? [], this.words()));
+  protected readonly blanks = computed(() => blankChart(this.data()?.blanks ?? [], this.words()));
+  protected readonly hardPercent = computed(() => Math.round((this.data()?.duplicates[0]?.tolerance ?? 0.3) * 100));
+  /** Why each batch is flagged, by batch code, written from the checks themselves in the active language. */
+  protected readonly reasons = computed(() => flaggedReasons(this.data(), this.words()));
   protected readonly standards = computed(() => {
     const data = this.data();
     if (!data) return [];
     const codes = [...new Set(data.standards.map((entry) => entry.standardCode))];
     return codes.flatMap((code) => {
       const standard = data.standardsOnRecord.find((candidate) => candidate.code === code);
-      return standard ? [{ code, expectedGpt: standard.expectedGpt, sdGpt: standard.sdGpt, config: standardChart(code, data.standards, standard.expectedGpt, standard.sdGpt) }] : [];
+      return standard ? [{ code, expectedGpt: standard.expectedGpt, sdGpt: standard.sdGpt, config: standardChart(code, data.standards, standard.expectedGpt, standard.sdGpt, this.words()) }] : [];
     });
   });
 
@@ -101,7 +115,29 @@ export default class QaqcPage implements OnInit {
     try {
       this.data.set(await this.store.qaqc(siteId));
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(problemText(this.transloco, toApiProblem(error), QAQC_PROBLEMS));
     }
   }
+}
+
+const FLAGGED_VERDICT_KEYS: Partial<Record<QcVerdict, string>> = {
+  fail: 'qaqc.reasons.fail', warn: 'qaqc.reasons.warn', 'unknown-standard': 'qaqc.reasons.unknownStandard',
+};
+
+/**
+ * The flagged checks of each batch (`blank …: fail; standard … (…): warn`), in batch order: blanks,
+ * then standards, then duplicates, as the server lists them in its own reasons.
+ */
+export function flaggedReasons(data: SiteQaqc | null, words: ChartWords): ReadonlyMap<string, string> {
+  const byBatch = new Map<string, string[]>();
+  if (!data) return new Map();
+  const note = (batchCode: string, verdict: QcVerdict, what: string) => {
+    const key = FLAGGED_VERDICT_KEYS[verdict];
+    if (!key) return;
+    byBatch.set(batchCode, [...(byBatch.get(batchCode) ?? []), words.translate('qaqc.reasons.line', { what, verdict: words.translate(key) })]);
+  };
+  for (const entry of data.blanks) note(entry.batchCode, entry.verdict, words.translate('qaqc.reasons.blank', { code: entry.labCode }));
+  for (const entry of data.standards) note(entry.batchCode, entry.verdict, words.translate('qaqc.reasons.standard', { standard: entry.standardCode, code: entry.labCode }));
+  for (const entry of data.duplicates) note(entry.batchCode, entry.verdict, words.translate('qaqc.reasons.duplicate', { code: entry.labCode, original: entry.originalLabCode }));
+  return new Map([...byBatch].map(([batchCode, reasons]) => [batchCode, reasons.join(words.translate('qaqc.reasons.separator'))]));
 }
