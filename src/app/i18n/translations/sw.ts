@@ -4,6 +4,10 @@ import core from '../../core/i18n/sw.json';
 import ui from '../../shared/ui/i18n/sw.json';
 import capture from '../../features/capture/i18n/sw.json';
 import spotHeights from '../../features/capture/components/spot-heights-editor/i18n/sw.json';
+import captureParts from '../../features/capture/components/i18n/sw.json';
+import pileForm from '../../features/capture/pages/pile-form/i18n/sw.json';
+import sampleForm from '../../features/capture/pages/sample-form/i18n/sw.json';
+import panTestForm from '../../features/capture/pages/pan-test-form/i18n/sw.json';
 import sync from '../../features/sync/i18n/sw.json';
 import safety from '../../features/safety/i18n/sw.json';
 import signIn from '../../features/sign-in/i18n/sw.json';
@@ -20,4 +24,4 @@ import qaqc from '../../features/qaqc/i18n/sw.json';
 import trials from '../../features/trials/i18n/sw.json';
 import shortlist from '../../features/shortlist/i18n/sw.json';
 
-export const translations = { common, core, ui, capture, spotHeights, sync, safety, signIn, profile, people, outbox, labels, siteMap, piles, samples, sampleMass, labBatches, qaqc, trials, shortlist };
+export const translations = { common, core, ui, capture, spotHeights, captureParts, pileForm, sampleForm, panTestForm, sync, safety, signIn, profile, people, outbox, labels, siteMap, piles, samples, sampleMass, labBatches, qaqc, trials, shortlist };
