@@ -2,14 +2,17 @@ import { registerLocaleData } from '@angular/common';
 import { Injectable } from '@angular/core';
 import type { Translation, TranslocoLoader } from '@jsverse/transloco';
 import type { LanguageCode } from './languages';
+import { translations as english } from './translations/en';
 
 /**
- * Each language is its own lazy chunk (its strings plus its CLDR number and date data), so a phone
- * downloads only the languages it uses; the service worker caches the chunks with the rest of the
- * app, so switching language works offline.
+ * English is in the main bundle: it is the default and every other language's fallback (so each
+ * phone loads it anyway), and the first screen waits for the language, so a lazy English chunk was
+ * one more round trip before the first paint. Kiswahili and French are each their own lazy chunk
+ * (strings plus CLDR number and date data), downloaded only when used; the service worker caches
+ * them with the rest of the app, so switching language works offline.
  */
 const BUNDLES: Record<LanguageCode, () => Promise<Translation>> = {
-  en: async () => (await import('./translations/en')).translations,
+  en: () => Promise.resolve(english),
   sw: async () => {
     const [{ translations }, locale] = await Promise.all([import('./translations/sw'), import('@angular/common/locales/sw')]);
     registerLocaleData(locale.default, 'sw');

@@ -1,4 +1,4 @@
-import { Component, afterNextRender, computed, effect, inject, signal } from '@angular/core';
+import { Component, DestroyRef, afterNextRender, computed, effect, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
@@ -13,6 +13,8 @@ import { PhotoThumb } from '../../components/photo-thumb';
 /** How many records each list shows at first, and how many more a tap on "Show more" adds. */
 export const PILES_PAGE = 30;
 export const SAMPLES_PAGE = 20;
+/** How long the first screen has the phone to itself before the forms load in the background. */
+const WARM_FORMS_AFTER_MS = 3000;
 
 /** What the home screen shows: counts from the indexes and one page of each list, never every row. */
 interface Overview {
@@ -85,6 +87,7 @@ export default class CaptureHome {
   protected readonly pileLimit = signal(PILES_PAGE);
   protected readonly sampleLimit = signal(SAMPLES_PAGE);
   protected readonly overview = signal<Overview | null>(null);
+  private warmTimer: ReturnType<typeof setTimeout> | undefined;
   /** True once the first read of the device database has been drawn. */
   readonly isLoaded = computed(() => this.overview() !== null);
 
@@ -97,14 +100,20 @@ export default class CaptureHome {
       });
       onCleanup(() => subscription.unsubscribe());
     });
-    // Once the list is drawn, fetch and compile the sample and pan-test forms while the crew reads
-    // it, so a tap on a slow phone only has to draw the form (the pile form, with its map, loads
-    // when asked for). Idle time only, so it never competes with the first screen.
+    // While the crew reads the list, load the three forms (their code, the map and the record
+    // checks), so a tap on a slow phone only has to draw the form. It waits until the first screen
+    // and the start-up sync have had the phone to themselves for a few seconds, then uses idle time,
+    // one form at a time.
     afterNextRender(() => {
-      const warm = () => { void import('../sample-form/sample-form'); void import('../pan-test-form/pan-test-form'); };
-      if ('requestIdleCallback' in window) requestIdleCallback(warm, { timeout: 4000 });
-      else setTimeout(warm, 1000);
+      const forms = [() => import('../sample-form/sample-form'), () => import('../pan-test-form/pan-test-form'), () => import('../pile-form/pile-form')];
+      const whenIdle = (next: () => void) => ('requestIdleCallback' in window ? requestIdleCallback(next, { timeout: 2000 }) : setTimeout(next, 200));
+      const warmNext = () => {
+        const form = forms.shift();
+        if (form) whenIdle(() => void form().then(warmNext, () => undefined));
+      };
+      this.warmTimer = setTimeout(warmNext, WARM_FORMS_AFTER_MS);
     });
+    inject(DestroyRef).onDestroy(() => clearTimeout(this.warmTimer));
   }
 
   private async read(pileLimit: number, sampleLimit: number): Promise<Overview> {
