@@ -1,12 +1,14 @@
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { liveQuery } from 'dexie';
 import { makeHumanCode } from '../../../../shared/sync/human-code';
-import type { EntityData, PanTestData, PileData, SampleData, SyncEntity } from '../../../../shared/sync/protocol';
+import type { EntityData, PanTestData, PileData, SampleData } from '../../../../shared/sync/protocol';
 import { AuthSession } from '../../core/auth/auth-session';
 import { heapsightDb, type LocalPile, type LocalSample } from '../../core/db/heapsight-db';
-import { saveRecord } from '../../core/sync/device-outbox';
+import { StorageFullError } from '../../core/db/storage-full';
+import { StorageFullNotice } from '../../core/db/storage-full-notice';
+import { saveRecord, tableOf } from '../../core/sync/device-outbox';
 import { SyncService } from '../../core/sync/sync.service';
-import { resizePhoto } from './photo-resize';
+import { resizePhoto, type ResizedPhoto } from './photo-resize';
 
 /**
  * Piles and samples on this device, as signals over Dexie, for the forms' pickers, and the ways to
@@ -18,6 +20,7 @@ export class CaptureStore {
   private readonly db = heapsightDb();
   private readonly session = inject(AuthSession);
   private readonly sync = inject(SyncService);
+  private readonly storageFull = inject(StorageFullNotice);
 
   readonly piles = signal<LocalPile[]>([]);
   readonly samples = signal<LocalSample[]>([]);
@@ -59,21 +62,47 @@ export class CaptureStore {
     return (await this.db.samples.where('code').equals(code).count()) > 0;
   }
 
-  savePile(pile: PileData): Promise<void> {
-    return this.save('pile', pile);
+  /** Records a pile with the photos taken for it, all or nothing. */
+  savePile(pile: PileData, photos: readonly Blob[] = []): Promise<void> {
+    return this.saveWithPhotos('pile', pile, photos);
   }
 
-  saveSample(sample: SampleData): Promise<void> {
-    return this.save('sample', sample);
+  /** Records a sample with the photos taken for it, all or nothing. */
+  saveSample(sample: SampleData, photos: readonly Blob[] = []): Promise<void> {
+    return this.saveWithPhotos('sample', sample, photos);
   }
 
   savePanTest(panTest: PanTestData): Promise<void> {
-    return this.save('panTest', panTest);
+    return this.saveWithPhotos('panTest', panTest, []);
   }
 
-  /** Resizes a camera picture and records it against a pile or sample. */
+  /** Resizes a camera picture and records it against a pile or sample already saved. */
   async addPhoto(ownerEntity: 'pile' | 'sample', ownerId: string, file: Blob): Promise<void> {
     const resized = await resizePhoto(file);
+    await this.storageFull.guard(() => this.writePhoto(ownerEntity, ownerId, resized));
+  }
+
+  /**
+   * The record, its photos and their outbox entries in one transaction: a full phone, a crash or a
+   * closed page leaves all of them or none, so a second tap on Save never makes a second record.
+   * Photos are resized first, outside the transaction (IndexedDB ends a transaction that waits on
+   * other work).
+   */
+  private async saveWithPhotos<E extends 'pile' | 'sample' | 'panTest'>(entity: E, data: EntityData[E], photos: readonly Blob[]): Promise<void> {
+    const resized: ResizedPhoto[] = [];
+    for (const photo of photos) {
+      resized.push(await resizePhoto(photo));
+    }
+    const now = new Date().toISOString();
+    await this.storageFull.guard(() => this.db.transaction('rw', [tableOf(this.db, entity), this.db.photos, this.db.outbox], async () => {
+      await saveRecord(this.db, entity, data, { mutationId: crypto.randomUUID(), now });
+      for (const photo of resized) {
+        await this.writePhoto(entity as 'pile' | 'sample', data.id, photo);
+      }
+    }));
+  }
+
+  private async writePhoto(ownerEntity: 'pile' | 'sample', ownerId: string, resized: ResizedPhoto): Promise<void> {
     const photo = {
       id: crypto.randomUUID(), ownerEntity, ownerId, contentType: 'image/jpeg' as const, originalWidth: resized.originalWidth,
       originalHeight: resized.originalHeight, byteSize: resized.blob.size, takenAt: new Date().toISOString(),
@@ -85,7 +114,10 @@ export class CaptureStore {
 
   /** Keeps a half-filled form so closing the app loses nothing. */
   async saveDraft(key: string, value: unknown): Promise<void> {
-    await this.db.drafts.put({ key, value, savedAt: new Date().toISOString() });
+    // A full phone refuses the draft too: the notice is shown, and the form (still open) keeps the values.
+    await this.storageFull.guard(() => this.db.drafts.put({ key, value, savedAt: new Date().toISOString() })).catch((error: unknown) => {
+      if (!(error instanceof StorageFullError)) throw error;
+    });
   }
 
   async draft<T>(key: string): Promise<T | null> {
@@ -94,10 +126,6 @@ export class CaptureStore {
 
   async clearDraft(key: string): Promise<void> {
     await this.db.drafts.delete(key);
-  }
-
-  private save<E extends SyncEntity>(entity: E, data: EntityData[E]): Promise<void> {
-    return saveRecord(this.db, entity, data, { mutationId: crypto.randomUUID(), now: new Date().toISOString() });
   }
 }
 

@@ -198,10 +198,8 @@ export default class PileForm implements OnInit, OnDestroy {
       this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
       return;
     }
-    await this.store.savePile(pile);
-    for (const photo of this.pendingPhotos()) {
-      await this.store.addPhoto('pile', pile.id, photo);
-    }
+    // The pile and its photos in one device write: a full phone or a closed page keeps both or neither.
+    await this.store.savePile(pile, this.pendingPhotos());
     await this.store.clearDraft(DRAFT_KEY);
     await this.router.navigateByUrl('/capture');
   }

@@ -168,10 +168,8 @@ export default class SampleForm {
       this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
       return;
     }
-    await this.store.saveSample(sample);
-    for (const photo of this.photos()) {
-      await this.store.addPhoto('sample', sample.id, photo);
-    }
+    // The sample and its photos in one device write: a full phone or a closed page keeps both or neither.
+    await this.store.saveSample(sample, this.photos());
     await this.router.navigateByUrl('/capture');
   }
 }
