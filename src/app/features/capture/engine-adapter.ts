@@ -6,12 +6,16 @@ import { measureFootprint, panTestGrade } from '../../../../shared/engine';
 import type { PanTestData, PileData } from '../../../../shared/sync/protocol';
 
 /** The estimated grade of a pan test (g/t), or the reason there is none yet. */
-export function estimatePanGrade(panTest: Pick<PanTestData, 'massPannedKg' | 'colours' | 'goldMassMg' | 'panEfficiency'>, moisturePct: number | null): { gradeGpt: number } | { reason: string } {
+export function estimatePanGrade(
+  panTest: Pick<PanTestData, 'massPannedKg' | 'colours' | 'goldMassMg' | 'panEfficiency'>, moisturePct: number | null,
+): { gradeGpt: number } | { reason: string; code: string | null; field: string | null } {
   const result = panTestGrade({
     massPannedKg: panTest.massPannedKg, moisturePct: moisturePct ?? 0, colours: panTest.colours,
     goldMassMg: panTest.goldMassMg ?? undefined, panEfficiency: panTest.panEfficiency ?? undefined,
   });
-  return result.ok ? { gradeGpt: result.value.gradeGpt } : { reason: result.errors[0]?.message ?? 'not enough to estimate' };
+  // The engine's code and field let a screen say it in the crew's language; the message is the English fallback.
+  const first = result.ok ? null : result.errors[0];
+  return result.ok ? { gradeGpt: result.value.gradeGpt } : { reason: first?.message ?? 'not enough to estimate', code: first?.code ?? null, field: first?.field ?? null };
 }
 
 /** Area and perimeter of a footprint (m²), or the reason it is refused (e.g. it crosses itself). */

@@ -7,9 +7,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
-import { PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { COLOUR_SIZE_CLASSES, parseEntityData, type PanTestData } from '../../../../../../shared/sync/protocol';
-import { SIZE_CLASS_LABELS } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 import { estimatePanGrade } from '../../engine-adapter';
 
@@ -18,31 +18,31 @@ type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
 /** A pan test: mass panned, colours per size class with big +/− counters (or weighed gold), live grade. */
 @Component({
   selector: 'hs-pan-test-form',
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, TranslocoPipe, ...LOCALE_FORMAT_PIPES],
   template: `
     <section class="hs-page">
-      <h1>Pan test</h1>
+      <h1>{{ 'panTestForm.title' | transloco }}</h1>
       <form [formGroup]="form" (ngSubmit)="savePanTest()">
-        <mat-form-field><mat-label>Sample</mat-label>
+        <mat-form-field><mat-label>{{ 'panTestForm.sample' | transloco }}</mat-label>
           <mat-select formControlName="sampleId">@for (sample of store.samples(); track sample.id) { <mat-option [value]="sample.id">{{ sample.code }}</mat-option> }</mat-select>
         </mat-form-field>
-        <mat-form-field><mat-label>Mass panned (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="massPannedKg" /></mat-form-field>
-        <h2>Colours per size class</h2>
+        <mat-form-field><mat-label>{{ 'panTestForm.massPanned' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="massPannedKg" /></mat-form-field>
+        <h2>{{ 'panTestForm.coloursHeading' | transloco }}</h2>
         @for (sizeClass of sizeClasses; track sizeClass) {
           <div class="counter">
-            <span>{{ sizeLabels[sizeClass] }}</span>
-            <button mat-stroked-button type="button" [attr.aria-label]="'fewer ' + sizeClass" (click)="count(sizeClass, -1)"><mat-icon>remove</mat-icon></button>
-            <output [attr.aria-label]="sizeClass + ' colours'">{{ counts()[sizeClass] }}</output>
-            <button mat-flat-button type="button" [attr.aria-label]="'more ' + sizeClass" (click)="count(sizeClass, 1)"><mat-icon>add</mat-icon></button>
+            <span>{{ 'common.terms.sizeClass.' + sizeClass | transloco }}</span>
+            <button mat-stroked-button type="button" [attr.aria-label]="'panTestForm.fewer.' + sizeClass | transloco" (click)="count(sizeClass, -1)"><mat-icon aria-hidden="true">remove</mat-icon></button>
+            <output [attr.aria-label]="'panTestForm.count.' + sizeClass | transloco">{{ counts()[sizeClass] }}</output>
+            <button mat-flat-button type="button" [attr.aria-label]="'panTestForm.more.' + sizeClass | transloco" (click)="count(sizeClass, 1)"><mat-icon aria-hidden="true">add</mat-icon></button>
           </div>
         }
-        <mat-form-field><mat-label>Or weighed gold (mg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="goldMassMg" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'panTestForm.weighedGold' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="goldMassMg" /></mat-form-field>
         <p class="grade" role="status">
-          @if (grade(); as estimate) { @if ('gradeGpt' in estimate) { Estimated grade {{ estimate.gradeGpt.toFixed(2) }} g/t } @else { {{ estimate.reason }} } }
+          @if (grade(); as estimate) { @if ('gradeGpt' in estimate) { {{ 'panTestForm.estimatedGrade' | transloco: { grade: (estimate.gradeGpt | hsNumber: '1.2-2') } }} } @else { {{ reasonKey(estimate) | transloco }} } }
         </p>
-        <p class="hs-muted">{{ planningStatement }}</p>
+        <p class="hs-muted">{{ 'panTestForm.planningStatement' | transloco }}</p>
         @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
-        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save pan test</button>
+        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> {{ 'panTestForm.save' | transloco }}</button>
       </form>
     </section>
   `,
@@ -57,8 +57,6 @@ export default class PanTestForm {
   protected readonly store = inject(CaptureStore);
   private readonly router = inject(Router);
   protected readonly sizeClasses = COLOUR_SIZE_CLASSES;
-  protected readonly sizeLabels = SIZE_CLASS_LABELS;
-  protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
   protected readonly errors = signal<string[]>([]);
   protected readonly counts = signal<Record<SizeClass, number>>({ 'very-coarse': 0, coarse: 0, medium: 0, fine: 0, 'very-fine': 0 });
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -75,6 +73,13 @@ export default class PanTestForm {
     }
     return estimatePanGrade({ massPannedKg: value.massPannedKg, colours: this.colours(), goldMassMg: value.goldMassMg ?? null, panEfficiency: null }, sample?.moisturePct ?? null);
   });
+
+  /** Why no grade can be shown yet, in the crew's language (the engine's English stays for the record). */
+  protected reasonKey(estimate: { code: string | null; field: string | null }): string {
+    if (estimate.code === 'missing' && estimate.field === 'goldMassMg') return 'panTestForm.reason.noGold';
+    if (estimate.field === 'massPannedKg') return 'panTestForm.reason.mass';
+    return 'panTestForm.reason.other';
+  }
 
   protected count(sizeClass: SizeClass, step: number): void {
     this.counts.update((counts) => ({ ...counts, [sizeClass]: Math.max(0, counts[sizeClass] + step) }));
