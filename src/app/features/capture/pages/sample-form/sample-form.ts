@@ -7,56 +7,62 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
+import { TranslocoPipe } from '@jsverse/transloco';
 import { parseHumanCode } from '../../../../../../shared/sync/human-code';
 import { SAMPLE_TYPES, parseEntityData, type SampleData } from '../../../../../../shared/sync/protocol';
 import { LabelScanner } from '../../../../shared/ui/label-scanner/label-scanner';
-import { SAMPLE_TYPE_LABELS, photoCount } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
+
+/** A message by translation key, translated when drawn (so a language switch redraws it). */
+interface TranslatedText {
+  readonly key: string;
+  readonly params: Record<string, unknown>;
+}
 
 /** A new sample of a pile: type, increments, wet mass, moisture, position, GPS point and photos. */
 @Component({
   selector: 'hs-sample-form',
-  imports: [ReactiveFormsModule, LabelScanner, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [ReactiveFormsModule, LabelScanner, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1>New sample</h1>
+      <h1>{{ 'sampleForm.title' | transloco }}</h1>
       <form [formGroup]="form" (ngSubmit)="saveSample()">
-        <mat-form-field><mat-label>Pile</mat-label>
+        <mat-form-field><mat-label>{{ 'sampleForm.pile' | transloco }}</mat-label>
           <mat-select formControlName="pileId">@for (pile of store.livePiles(); track pile.id) { <mat-option [value]="pile.id">{{ pile.code }}</mat-option> }</mat-select>
         </mat-form-field>
-        <mat-form-field><mat-label>Sample type</mat-label>
-          <mat-select formControlName="sampleType">@for (type of types; track type) { <mat-option [value]="type">{{ typeLabels[type] }}</mat-option> }</mat-select>
+        <mat-form-field><mat-label>{{ 'sampleForm.sampleType' | transloco }}</mat-label>
+          <mat-select formControlName="sampleType">@for (type of types; track type) { <mat-option [value]="type">{{ 'common.terms.sampleType.' + type | transloco }}</mat-option> }</mat-select>
         </mat-form-field>
         @if (sampleType() === 'duplicate') {
-          <mat-form-field><mat-label>Duplicate of</mat-label>
+          <mat-form-field><mat-label>{{ 'sampleForm.duplicateOf' | transloco }}</mat-label>
             <mat-select formControlName="duplicateOfId">@for (sample of samplesOfPile(); track sample.id) { <mat-option [value]="sample.id">{{ sample.code }}</mat-option> }</mat-select>
           </mat-form-field>
         }
         @if (sampleType() === 'standard') {
-          <mat-form-field><mat-label>Reference standard (code on the sachet)</mat-label><input matInput formControlName="standardId" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'sampleForm.standard' | transloco }}</mat-label><input matInput formControlName="standardId" /></mat-form-field>
         }
         <div class="label-code">
-          <mat-form-field><mat-label>Label code</mat-label>
+          <mat-form-field><mat-label>{{ 'sampleForm.labelCode' | transloco }}</mat-label>
             <input matInput formControlName="labelCode" autocapitalize="characters" autocomplete="off" spellcheck="false" data-testid="label-code" />
-            <mat-hint>From the bag's label; leave empty and this phone numbers the sample</mat-hint>
+            <mat-hint>{{ 'sampleForm.labelCodeHint' | transloco }}</mat-hint>
           </mat-form-field>
           @if (!isScanning()) {
-            <button mat-stroked-button type="button" (click)="startScanning()" data-testid="scan-label"><mat-icon>qr_code_scanner</mat-icon> Scan label</button>
+            <button mat-stroked-button type="button" (click)="startScanning()" data-testid="scan-label"><mat-icon aria-hidden="true">qr_code_scanner</mat-icon> {{ 'sampleForm.scanLabel' | transloco }}</button>
           }
         </div>
         @if (isScanning()) {
           <hs-label-scanner (codeRead)="useScannedCode($event)" (cancelled)="isScanning.set(false)" />
         }
-        @if (labelProblem(); as problem) { <p class="error" role="alert" data-testid="label-problem">{{ problem }}</p> }
-        <mat-form-field><mat-label>Increments</mat-label><input matInput type="number" inputmode="numeric" formControlName="increments" /></mat-form-field>
-        <mat-form-field><mat-label>Wet mass (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="wetMassKg" /></mat-form-field>
-        <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
-        <mat-form-field><mat-label>Position on pile</mat-label><input matInput formControlName="position" /></mat-form-field>
-        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> Add photo
+        @if (labelProblem(); as problem) { <p class="error" role="alert" data-testid="label-problem">{{ problem.key | transloco: problem.params }}</p> }
+        <mat-form-field><mat-label>{{ 'sampleForm.increments' | transloco }}</mat-label><input matInput type="number" inputmode="numeric" formControlName="increments" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleForm.wetMass' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="wetMassKg" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleForm.moisture' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'sampleForm.position' | transloco }}</mat-label><input matInput formControlName="position" /></mat-form-field>
+        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> {{ 'sampleForm.addPhoto' | transloco }}
           <input class="hs-file" type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
-        <p role="status">{{ photoCount(photos().length) }} · GPS {{ accuracyM() === null ? 'waiting for a fix' : '±' + accuracyM() + ' m' }}</p>
-        @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
-        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save sample</button>
+        <p role="status">{{ 'common.terms.photoCount' | transloco: { count: photos().length } }} · @if (accuracyM(); as accuracy) { {{ 'sampleForm.gpsAccuracy' | transloco: { metres: accuracy } }} } @else { {{ 'sampleForm.gpsWaiting' | transloco }} }</p>
+        @for (error of errors(); track error) { <p class="error" role="alert">{{ error.key | transloco: error.params }}</p> }
+        <button mat-flat-button type="submit"><mat-icon aria-hidden="true">save</mat-icon> {{ 'sampleForm.save' | transloco }}</button>
       </form>
     </section>
   `,
@@ -74,10 +80,8 @@ export default class SampleForm {
   protected readonly store = inject(CaptureStore);
   private readonly router = inject(Router);
   protected readonly types = SAMPLE_TYPES;
-  protected readonly typeLabels = SAMPLE_TYPE_LABELS;
-  protected readonly photoCount = photoCount;
   protected readonly photos = signal<Blob[]>([]);
-  protected readonly errors = signal<string[]>([]);
+  protected readonly errors = signal<TranslatedText[]>([]);
   protected readonly form = inject(NonNullableFormBuilder).group({
     pileId: ['', Validators.required],
     sampleType: ['routine' as SampleData['sampleType']],
@@ -95,7 +99,7 @@ export default class SampleForm {
   protected readonly samplesOfPile = computed(() => this.store.samples().filter((sample) => sample.pileId === this.pileId()));
   protected readonly accuracyM = signal<number | null>(null);
   protected readonly isScanning = signal(false);
-  protected readonly labelProblem = signal<string | null>(null);
+  protected readonly labelProblem = signal<TranslatedText | null>(null);
   private location: SampleData['location'] = null;
 
   constructor() {
@@ -121,16 +125,16 @@ export default class SampleForm {
   }
 
   /** Why a label code cannot be this sample's code, or null when it can. */
-  private async labelCodeProblem(code: string, siteCode: string | null): Promise<string | null> {
+  private async labelCodeProblem(code: string, siteCode: string | null): Promise<TranslatedText | null> {
     const parts = parseHumanCode(code);
     if (!parts || parts.kind !== 'sample') {
-      return `${code} is not a sample label code (it looks like JR-03-0042)`;
+      return { key: 'sampleForm.problems.notASampleCode', params: { code } };
     }
     if (siteCode !== null && parts.siteCode !== siteCode) {
-      return `${code} is a label of site ${parts.siteCode}, but this pile is at ${siteCode}`;
+      return { key: 'sampleForm.problems.otherSite', params: { code, labelSite: parts.siteCode, pileSite: siteCode } };
     }
     if (await this.store.isSampleCodeTaken(code)) {
-      return `${code} is already used by a sample on this phone: take a new label`;
+      return { key: 'sampleForm.problems.codeUsed', params: { code } };
     }
     return null;
   }
@@ -147,7 +151,7 @@ export default class SampleForm {
     const pile = this.store.livePiles().find((candidate) => candidate.id === value.pileId);
     const site = this.store.sites().find((candidate) => candidate.id === pile?.siteId);
     if (!pile || !site) {
-      this.errors.set(['Choose the pile']);
+      this.errors.set([{ key: 'sampleForm.problems.choosePile', params: {} }]);
       return;
     }
     const labelCode = value.labelCode.trim().toUpperCase();
@@ -165,7 +169,7 @@ export default class SampleForm {
     };
     const checked = parseEntityData('sample', sample);
     if (!checked.ok) {
-      this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
+      this.errors.set(checked.errors.map((error) => ({ key: 'sampleForm.problems.notAccepted', params: { field: error.path, message: error.message } })));
       return;
     }
     // The sample and its photos in one device write: a full phone or a closed page keeps both or neither.
