@@ -1,10 +1,12 @@
 import { Component, ElementRef, effect, input, output, viewChild, type AfterViewInit, type OnDestroy } from '@angular/core';
+import { TranslocoPipe } from '@jsverse/transloco';
 import * as L from 'leaflet';
 
 /** A plain background map (no tiles in the field) where a tap adds a corner of the footprint. */
 @Component({
   selector: 'hs-footprint-map',
-  template: `<div #map class="map" role="application" aria-label="Tap the corners of the pile toe"></div>`,
+  imports: [TranslocoPipe],
+  template: `<div #map class="map" role="application" [attr.aria-label]="'captureParts.footprintMap' | transloco"></div>`,
   styles: `.map { height: 260px; border-radius: 12px; background: var(--mat-sys-surface-container-high); }`,
 })
 export class FootprintMap implements AfterViewInit, OnDestroy {

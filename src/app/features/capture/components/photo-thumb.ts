@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Component, effect, inject, input, signal, type OnDestroy } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { TranslocoPipe } from '@jsverse/transloco';
 import type { LocalPhoto } from '../../../core/db/heapsight-db';
 
 /**
@@ -9,8 +10,8 @@ import type { LocalPhoto } from '../../../core/db/heapsight-db';
  */
 @Component({
   selector: 'hs-photo-thumb',
-  imports: [MatIconModule],
-  template: `@if (photo()) { @if (source(); as src) { <img [src]="src" alt="Photo" width="48" height="48" /> } @else { <mat-icon class="placeholder" aria-label="Photo on the server">image</mat-icon> } }`,
+  imports: [MatIconModule, TranslocoPipe],
+  template: `@if (photo()) { @if (source(); as src) { <img [src]="src" [alt]="'captureParts.photo' | transloco" width="48" height="48" /> } @else { <mat-icon class="placeholder" [attr.aria-label]="'captureParts.photoOnServer' | transloco">image</mat-icon> } }`,
   styles: `img { object-fit: cover; border-radius: 8px; } .placeholder { width: 48px; height: 48px; font-size: 32px; display: grid; place-items: center; }`,
 })
 export class PhotoThumb implements OnDestroy {
