@@ -1,23 +1,27 @@
 import { Component, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { TranslocoPipe } from '@jsverse/transloco';
 import type { Caution } from '../../../../../shared/safety/cautions';
 
-/** One safety caution: icon, title, the actions to take and the source of the advice. */
+/**
+ * One safety caution: icon, title, the actions to take and the source of the advice, in the crew's
+ * language (shared/safety/cautions.ts holds the English; the source citation stays as published).
+ */
 @Component({
   selector: 'hs-caution-card',
-  imports: [MatIconModule],
+  imports: [MatIconModule, TranslocoPipe],
   template: `
     <article class="caution" [attr.aria-labelledby]="'caution-' + caution().hazard">
       <header>
         <mat-icon aria-hidden="true">{{ caution().icon }}</mat-icon>
-        <h3 [id]="'caution-' + caution().hazard">{{ caution().title }}</h3>
+        <h3 [id]="'caution-' + caution().hazard">{{ 'ui.caution.hazards.' + caution().hazard + '.title' | transloco }}</h3>
       </header>
       <ul>
-        @for (action of caution().actions; track action) {
-          <li>{{ action }}</li>
+        @for (action of caution().actions; track $index) {
+          <li>{{ 'ui.caution.hazards.' + caution().hazard + '.actions.' + $index | transloco }}</li>
         }
       </ul>
-      <p class="source">Source: {{ caution().source }}</p>
+      <p class="source">{{ 'ui.caution.source' | transloco: { source: caution().source } }}</p>
     </article>
   `,
   styles: `
