@@ -3,7 +3,7 @@
 // chooses a password and signs in. No page may break the content security policy.
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { DEMO_PASSWORD, launchBrowser, newContext, screenshot, startServer, waitForServiceWorker } from './harness.mjs';
+import { DEMO_PASSWORD, launchBrowser, newContext, reloadOffline, screenshot, startServer, waitForServiceWorker } from './harness.mjs';
 
 /** Collects what the browser reports as content-security-policy violations on the page. */
 function watchCsp(page) {
@@ -51,7 +51,7 @@ describe('accounts', () => {
     assert.equal(await page.getByLabel('Device name').inputValue(), 'Crew phone 7');
 
     await context.setOffline(true);
-    await page.reload();
+    await reloadOffline(context, page);
     await page.getByRole('heading', { name: 'Neema Field' }).waitFor();
     await page.getByRole('status').filter({ hasText: 'Offline' }).waitFor();
     assert.equal(await page.getByRole('link', { name: 'People & sites' }).count(), 0, 'a sampler has no admin screens');

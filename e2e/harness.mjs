@@ -108,3 +108,14 @@ export async function screenshot(page, name) {
   await page.screenshot({ path, fullPage: false });
   return path;
 }
+
+/**
+ * Reloads a page while the context is offline. Chromium 150 serves the reload from the service worker
+ * but leaves the new document's navigator.onLine at true; setting the emulation again after the
+ * reload gives the page the state a phone with no signal has (`offline` event, onLine false).
+ */
+export async function reloadOffline(context, page) {
+  await page.reload();
+  await context.setOffline(false);
+  await context.setOffline(true);
+}

@@ -2,7 +2,7 @@
 // with its own fonts and icons, and never asks a host outside this machine for anything.
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { launchBrowser, newContext, screenshot, startServer, waitForServiceWorker } from './harness.mjs';
+import { launchBrowser, newContext, reloadOffline, screenshot, startServer, waitForServiceWorker } from './harness.mjs';
 
 describe('the app shell offline', () => {
   let server;
@@ -28,7 +28,7 @@ describe('the app shell offline', () => {
     assert.equal(await page.evaluate(() => navigator.serviceWorker.controller !== null), true, 'page is controlled by the worker');
 
     await context.setOffline(true);
-    await page.reload();
+    await reloadOffline(context, page);
     await page.getByRole('heading', { name: 'Capture' }).waitFor();
     assert.equal(await page.evaluate(() => navigator.onLine), false);
     await page.getByRole('status').filter({ hasText: 'Offline' }).waitFor();
