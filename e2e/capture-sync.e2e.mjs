@@ -97,7 +97,7 @@ describe('capture and sync', () => {
       await map.click({ position });
     }
     await page.getByText(/4 corners/).waitFor();
-    await page.getByText(/area \d+ m²/).waitFor();
+    await page.getByText(/area [\d,]+ m²/).waitFor();
     await screenshot(page, 'capture-pile-footprint-phone');
     await page.getByLabel('Add photo').setInputFiles(PHOTO);
     await page.getByText('1 photo', { exact: false }).waitFor();

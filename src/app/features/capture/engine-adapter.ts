@@ -19,7 +19,7 @@ export function estimatePanGrade(
 }
 
 /** Area and perimeter of a footprint (m²), or the reason it is refused (e.g. it crosses itself). */
-export function measurePileFootprint(footprint: NonNullable<PileData['footprint']>): { areaM2: number; perimeterM: number } | { reason: string } {
+export function measurePileFootprint(footprint: NonNullable<PileData['footprint']>): { areaM2: number; perimeterM: number } | { reason: string; code: string | null } {
   const result = measureFootprint(footprint);
-  return result.ok ? { areaM2: result.value.areaM2, perimeterM: result.value.perimeterM } : { reason: result.errors[0]?.message ?? 'not a valid footprint' };
+  return result.ok ? { areaM2: result.value.areaM2, perimeterM: result.value.perimeterM } : { reason: result.errors[0]?.message ?? 'not a valid footprint', code: result.errors[0]?.code ?? null };
 }

@@ -8,13 +8,14 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
-import { HAZARDS, cautionFor, PLANNING_ESTIMATE_STATEMENT, type Hazard } from '../../../../../../shared/safety/cautions';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { HAZARDS, cautionFor, type Hazard } from '../../../../../../shared/safety/cautions';
 import { PILE_MATERIALS, SHAPE_MODELS, parseEntityData, type PileData } from '../../../../../../shared/sync/protocol';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
-import { MATERIAL_LABELS, SHAPE_LABELS, photoCount } from '../../capture-labels';
 import { CaptureStore } from '../../capture.store';
 import { FootprintMap } from '../../components/footprint-map';
 import { measurePileFootprint } from '../../engine-adapter';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 
 /** GPS fixes worse than this (m) are dropped while walking the toe. */
 const MAX_FIX_ACCURACY_M = 10;
@@ -23,56 +24,56 @@ const DRAFT_KEY = 'pile-form';
 /** A new pile: material, shape, height, hazards with their cautions, footprint walked or drawn, photos. */
 @Component({
   selector: 'hs-pile-form',
-  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, CautionCard, FootprintMap],
+  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, CautionCard, FootprintMap, TranslocoPipe, ...LOCALE_FORMAT_PIPES],
   template: `
     <section class="hs-page">
-      <h1>New pile</h1>
+      <h1>{{ 'pileForm.title' | transloco }}</h1>
       <form [formGroup]="form" (ngSubmit)="savePile()">
-        <mat-form-field><mat-label>Site</mat-label>
+        <mat-form-field><mat-label>{{ 'pileForm.site' | transloco }}</mat-label>
           <mat-select formControlName="siteId">@for (site of store.sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} {{ site.name }}</mat-option> }</mat-select>
         </mat-form-field>
-        <mat-form-field><mat-label>Material</mat-label>
-          <mat-select formControlName="material">@for (material of materials; track material) { <mat-option [value]="material">{{ materialLabels[material] }}</mat-option> }</mat-select>
+        <mat-form-field><mat-label>{{ 'pileForm.material' | transloco }}</mat-label>
+          <mat-select formControlName="material">@for (material of materials; track material) { <mat-option [value]="material">{{ 'common.terms.material.' + material | transloco }}</mat-option> }</mat-select>
         </mat-form-field>
-        <mat-form-field><mat-label>Shape model</mat-label>
-          <mat-select formControlName="shapeModel">@for (shape of shapes; track shape) { <mat-option [value]="shape">{{ shapeLabels[shape] }}</mat-option> }</mat-select>
+        <mat-form-field><mat-label>{{ 'pileForm.shapeModel' | transloco }}</mat-label>
+          <mat-select formControlName="shapeModel">@for (shape of shapes; track shape) { <mat-option [value]="shape">{{ 'common.terms.shapeModel.' + shape | transloco }}</mat-option> }</mat-select>
         </mat-form-field>
         @if (shapeModel() === 'sacks') {
-          <mat-form-field><mat-label>Number of sacks</mat-label><input matInput type="number" inputmode="numeric" formControlName="sackCount" /></mat-form-field>
-          <mat-form-field><mat-label>Mass per sack (kg)</mat-label><input matInput type="number" inputmode="decimal" formControlName="sackMassKg" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'pileForm.sackCount' | transloco }}</mat-label><input matInput type="number" inputmode="numeric" formControlName="sackCount" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'pileForm.sackMass' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="sackMassKg" /></mat-form-field>
         } @else {
-          <mat-form-field><mat-label>Height (m)</mat-label><input matInput type="number" inputmode="decimal" formControlName="heightM" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'pileForm.height' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="heightM" /></mat-form-field>
         }
         @if (shapeModel() === 'flat-topped') {
-          <mat-form-field><mat-label>Angle of repose (°)</mat-label><input matInput type="number" inputmode="decimal" formControlName="angleOfReposeDeg" /></mat-form-field>
+          <mat-form-field><mat-label>{{ 'pileForm.angleOfRepose' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="angleOfReposeDeg" /></mat-form-field>
         }
-        <mat-form-field><mat-label>Moisture (%)</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
+        <mat-form-field><mat-label>{{ 'pileForm.moisture' | transloco }}</mat-label><input matInput type="number" inputmode="decimal" formControlName="moisturePct" /></mat-form-field>
 
-        <fieldset><legend>Hazards seen</legend>
+        <fieldset><legend>{{ 'pileForm.hazards' | transloco }}</legend>
           @for (hazard of hazards; track hazard) {
-            <mat-checkbox [checked]="hasHazard(hazard)" (change)="toggleHazard(hazard)">{{ cautionFor(hazard).title }}</mat-checkbox>
+            <mat-checkbox [checked]="hasHazard(hazard)" (change)="toggleHazard(hazard)">{{ 'ui.caution.hazards.' + hazard + '.title' | transloco }}</mat-checkbox>
             @if (hasHazard(hazard)) { <hs-caution-card [caution]="cautionFor(hazard)" /> }
           }
         </fieldset>
-        <mat-form-field><mat-label>Owner or crew note</mat-label><textarea matInput formControlName="notes"></textarea></mat-form-field>
+        <mat-form-field><mat-label>{{ 'pileForm.notes' | transloco }}</mat-label><textarea matInput formControlName="notes"></textarea></mat-form-field>
 
-        <h2>Footprint</h2>
+        <h2>{{ 'pileForm.footprint' | transloco }}</h2>
         <hs-footprint-map [corners]="corners()" (cornerAdded)="addCorner($event)" />
         <div class="row">
-          <button mat-stroked-button type="button" (click)="toggleWalking()"><mat-icon>directions_walk</mat-icon> {{ isWalking() ? 'Stop walking' : 'Walk the toe' }}</button>
-          <button mat-stroked-button type="button" (click)="clearCorners()"><mat-icon>undo</mat-icon> Clear</button>
+          <button mat-stroked-button type="button" (click)="toggleWalking()"><mat-icon aria-hidden="true">directions_walk</mat-icon> {{ (isWalking() ? 'pileForm.stopWalking' : 'pileForm.walkTheToe') | transloco }}</button>
+          <button mat-stroked-button type="button" (click)="clearCorners()"><mat-icon aria-hidden="true">undo</mat-icon> {{ 'pileForm.clear' | transloco }}</button>
         </div>
-        <p role="status">{{ corners().length }} corners
-          @if (lastAccuracyM() !== null) { · last fix ±{{ lastAccuracyM() }} m (fixes worse than ±{{ maxAccuracy }} m are dropped) }
-          @if (footprintMeasure(); as measure) { @if ('areaM2' in measure) { · area {{ measure.areaM2.toFixed(0) }} m² (planning estimate) } @else { · {{ measure.reason }} } }
+        <p role="status">{{ 'pileForm.corners' | transloco: { count: corners().length } }}
+          @if (lastAccuracyM() !== null) { · {{ 'pileForm.lastFix' | transloco: { metres: lastAccuracyM(), limit: maxAccuracy } }} }
+          @if (footprintMeasure(); as measure) { @if ('areaM2' in measure) { · {{ 'pileForm.area' | transloco: { area: (measure.areaM2 | hsNumber: '1.0-0') } }} } @else { · {{ footprintProblemKey(measure.code) | transloco }} } }
         </p>
-        <p class="hs-muted">{{ planningStatement }}</p>
+        <p class="hs-muted">{{ 'pileForm.planningStatement' | transloco }}</p>
 
-        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> Add photo
+        <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> {{ 'pileForm.addPhoto' | transloco }}
           <input class="hs-file" type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>
-        <p role="status">{{ photoCount(pendingPhotos().length) }}</p>
-        @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
-        <button mat-flat-button type="submit"><mat-icon>save</mat-icon> Save pile</button>
+        <p role="status">{{ 'common.terms.photoCount' | transloco: { count: pendingPhotos().length } }}</p>
+        @for (error of errors(); track error) { <p class="error" role="alert">{{ error.key | transloco: error.params }}</p> }
+        <button mat-flat-button type="submit"><mat-icon aria-hidden="true">save</mat-icon> {{ 'pileForm.save' | transloco }}</button>
       </form>
     </section>
   `,
@@ -95,10 +96,6 @@ export default class PileForm implements OnInit, OnDestroy {
   protected readonly hazards = HAZARDS;
   protected readonly cautionFor = cautionFor;
   protected readonly maxAccuracy = MAX_FIX_ACCURACY_M;
-  protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
-  protected readonly materialLabels = MATERIAL_LABELS;
-  protected readonly shapeLabels = SHAPE_LABELS;
-  protected readonly photoCount = photoCount;
   protected readonly form = inject(NonNullableFormBuilder).group({
     siteId: ['', Validators.required],
     material: ['sluice-tailings' as PileData['material']],
@@ -116,7 +113,7 @@ export default class PileForm implements OnInit, OnDestroy {
   protected readonly isWalking = signal(false);
   protected readonly lastAccuracyM = signal<number | null>(null);
   protected readonly pendingPhotos = signal<Blob[]>([]);
-  protected readonly errors = signal<string[]>([]);
+  protected readonly errors = signal<{ key: string; params: Record<string, unknown> }[]>([]);
   protected readonly footprintMeasure = computed(() => {
     const footprint = this.footprint();
     return footprint ? measurePileFootprint(footprint) : null;
@@ -137,6 +134,13 @@ export default class PileForm implements OnInit, OnDestroy {
 
   ngOnDestroy(): void {
     this.stopWalking();
+  }
+
+  /** Why the footprint cannot be measured, in the crew's language, from the engine's error code. */
+  protected footprintProblemKey(code: string | null): string {
+    if (code === 'self-intersection') return 'pileForm.footprintProblems.crosses';
+    if (code === 'degenerate-ring') return 'pileForm.footprintProblems.noArea';
+    return 'pileForm.footprintProblems.other';
   }
 
   protected hasHazard(hazard: Hazard): boolean {
@@ -183,7 +187,7 @@ export default class PileForm implements OnInit, OnDestroy {
     const value = this.form.getRawValue();
     const site = this.store.sites().find((candidate) => candidate.id === value.siteId);
     if (!site) {
-      this.errors.set(['Choose a site']);
+      this.errors.set([{ key: 'pileForm.problems.chooseSite', params: {} }]);
       return;
     }
     const isSacks = value.shapeModel === 'sacks';
@@ -195,7 +199,7 @@ export default class PileForm implements OnInit, OnDestroy {
     };
     const checked = parseEntityData('pile', pile);
     if (!checked.ok) {
-      this.errors.set(checked.errors.map((error) => `${error.path}: ${error.message}`));
+      this.errors.set(checked.errors.map((error) => ({ key: 'pileForm.problems.notAccepted', params: { field: error.path, message: error.message } })));
       return;
     }
     // The pile and its photos in one device write: a full phone or a closed page keeps both or neither.
