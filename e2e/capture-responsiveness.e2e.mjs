@@ -10,19 +10,11 @@
 // screen before tapping; a tap that lands while the app is still busy would time that work instead.
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { DEMO_PASSWORD, launchBrowser, newContext, screenshot, startServer } from './harness.mjs';
+import { launchBrowser, newContext, screenshot, signIn, startServer } from './harness.mjs';
 
 const SMALL_PHONE = { width: 360, height: 640 };
 /** The longest a tap may take to show its response (a person with gloves waits for feedback, then taps again). */
 const LONGEST_RESPONSE_MS = 1000;
-
-async function signIn(page, baseUrl, email) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((address) => !address.pathname.startsWith('/sign-in'));
-}
 
 /** Installed before the app: records the time of each tap and typed entry, and long tasks. */
 function watchInput() {

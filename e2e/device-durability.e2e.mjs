@@ -8,19 +8,11 @@
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { DEMO_PASSWORD, ROOT, launchBrowser, newContext, startServer, waitForServiceWorker } from './harness.mjs';
+import { ROOT, launchBrowser, newContext, signIn, startServer, waitForServiceWorker } from './harness.mjs';
 
 const PHOTO = join(ROOT, 'tests/fixtures/pile-photo.jpg');
 /** How long after the tap on Save the page is closed: before, during and after the device write. */
 const CLOSE_AFTER_MS = [0, 5, 15, 30, 60, 120, 250, 500];
-
-async function signIn(page, baseUrl, email) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
-}
 
 /** Opens New sample and fills it for the first pile, with a photo. */
 async function fillSample(page, baseUrl, { pileCode, wetMass }) {

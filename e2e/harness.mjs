@@ -119,3 +119,12 @@ export async function reloadOffline(context, page) {
   await context.setOffline(false);
   await context.setOffline(true);
 }
+
+/** Signs in through the sign-in screen as a demo person and waits to leave it. */
+export async function signIn(page, baseUrl, email) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}

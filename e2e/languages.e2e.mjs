@@ -6,7 +6,7 @@ import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { DEMO_PASSWORD, ROOT, launchBrowser, newContext, screenshot, startServer } from './harness.mjs';
+import { ROOT, launchBrowser, newContext, screenshot, signIn, startServer } from './harness.mjs';
 
 const SMALL_PHONE = { width: 360, height: 640 };
 /** The namespaces the capture flow draws its words from. */
@@ -52,14 +52,6 @@ function textsOnPage(page) {
     }
     return texts;
   });
-}
-
-async function signIn(page, baseUrl, email) {
-  await page.goto(`${baseUrl}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
 }
 
 async function switchLanguage(page, name) {
