@@ -10,15 +10,11 @@ export class StorageFullError extends Error {
   }
 }
 
-/** The legacy numeric code of QuotaExceededError (WebIDL, DOMException error names table). */
-const QUOTA_EXCEEDED_ERR = 22;
-
 /** True when `error`, or an error it wraps, is the browser refusing a write for lack of space. */
 export function isStorageFull(error: unknown, depth = 0): boolean {
   if (depth > 4 || typeof error !== 'object' || error === null) return false;
   const candidate = error as { name?: unknown; code?: unknown; inner?: unknown; failures?: unknown };
   if (candidate instanceof StorageFullError || candidate.name === 'QuotaExceededError') return true;
-  if (candidate.code === QUOTA_EXCEEDED_ERR && candidate.name !== undefined && typeof DOMException !== 'undefined' && error instanceof DOMException) return true;
   if (isStorageFull(candidate.inner, depth + 1)) return true;
   return Array.isArray(candidate.failures) && candidate.failures.some((failure) => isStorageFull(failure, depth + 1));
 }
