@@ -13,7 +13,7 @@ export class StorageFullError extends Error {
 /** True when `error`, or an error it wraps, is the browser refusing a write for lack of space. */
 export function isStorageFull(error: unknown, depth = 0): boolean {
   if (depth > 4 || typeof error !== 'object' || error === null) return false;
-  const candidate = error as { name?: unknown; code?: unknown; inner?: unknown; failures?: unknown };
+  const candidate = error as { name?: unknown; inner?: unknown; failures?: unknown };
   if (candidate instanceof StorageFullError || candidate.name === 'QuotaExceededError') return true;
   if (isStorageFull(candidate.inner, depth + 1)) return true;
   return Array.isArray(candidate.failures) && candidate.failures.some((failure) => isStorageFull(failure, depth + 1));
