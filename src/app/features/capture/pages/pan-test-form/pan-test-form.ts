@@ -40,7 +40,7 @@ type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
         <p class="grade" role="status">
           @if (grade(); as estimate) { @if ('gradeGpt' in estimate) { {{ 'panTestForm.estimatedGrade' | transloco: { grade: (estimate.gradeGpt | hsNumber: '1.2-2') } }} } @else { {{ reasonKey(estimate) | transloco }} } }
         </p>
-        <p class="hs-muted">{{ 'panTestForm.planningStatement' | transloco }}</p>
+        <p class="hs-muted">{{ 'common.planningStatement' | transloco }}</p>
         @for (error of errors(); track error) { <p class="error" role="alert">{{ error }}</p> }
         <button mat-flat-button type="submit"><mat-icon>save</mat-icon> {{ 'panTestForm.save' | transloco }}</button>
       </form>

@@ -67,7 +67,7 @@ const DRAFT_KEY = 'pile-form';
           @if (lastAccuracyM() !== null) { · {{ 'pileForm.lastFix' | transloco: { metres: lastAccuracyM(), limit: maxAccuracy } }} }
           @if (footprintMeasure(); as measure) { @if ('areaM2' in measure) { · {{ 'pileForm.area' | transloco: { area: (measure.areaM2 | hsNumber: '1.0-0') } }} } @else { · {{ footprintProblemKey(measure.code) | transloco }} } }
         </p>
-        <p class="hs-muted">{{ 'pileForm.planningStatement' | transloco }}</p>
+        <p class="hs-muted">{{ 'common.planningStatement' | transloco }}</p>
 
         <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> {{ 'pileForm.addPhoto' | transloco }}
           <input class="hs-file" type="file" accept="image/*" capture="environment" (change)="keepPhoto($event)" /></label>

@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { AuthSession, type SessionUser } from '../../../../core/auth/auth-session';
 import { AppLanguage } from '../../../../i18n/app-language';
+import { eventually } from '../../../../../testing/eventually';
 import LabelsPage from './labels-page';
 
 const sampler: SessionUser = {
@@ -48,8 +49,7 @@ describe('LabelsPage', () => {
     const body = { error: { code: 'conflict', message: 'This site has used up its label codes (at most 999999)', details: null } };
     server.expectOne((request) => request.url === '/api/labels.pdf')
       .flush(new Blob([JSON.stringify(body)], { type: 'application/json' }), { status: 409, statusText: 'Conflict' });
-    await new Promise((resolve) => setTimeout(resolve, 20));
-    await fixture.whenStable();
-    expect(element.querySelector('[role=alert]')?.textContent).toBe('Ce site a épuisé ses codes d\'étiquettes');
+    const alert = await eventually(() => element.querySelector('[role=alert]'));
+    expect(alert.textContent).toBe('Ce site a épuisé ses codes d\'étiquettes');
   });
 });
