@@ -102,6 +102,13 @@ export async function findPile(id: string): Promise<RecordView<PileData> | null>
   return row ? toView<PileData>(row, PILE_FIELDS) : null;
 }
 
+/** The columns the sample list may be sorted by. */
+export const SAMPLE_SORTS = ['code', 'collectedAt', 'sampleType', 'wetMassKg', 'pileCode'] as const;
+/** A sample list's sort column. */
+export type SampleSort = (typeof SAMPLE_SORTS)[number];
+/** Which way a sort runs. */
+export type SortDirection = 'asc' | 'desc';
+
 /** Filters for the sample table. */
 export interface SampleFilter {
   readonly siteId?: string;
@@ -110,8 +117,20 @@ export interface SampleFilter {
   readonly codePrefix?: string;
   readonly collectedFrom?: string;
   readonly collectedTo?: string;
+  /** Absent: newest first (`collectedAt` descending, then code), the order the list always had. */
+  readonly sort?: SampleSort;
+  readonly direction?: SortDirection;
   readonly limit: number;
   readonly offset: number;
+}
+
+/** A listed sample: the record and its pile's code. */
+export type SampleListItem = RecordView<SampleData> & { readonly pileCode: string };
+
+/** One page of samples, with the data revision it was read at and each item's site (not shown, for grading). */
+export interface SamplePage extends Page<SampleListItem> {
+  readonly revision: number;
+  readonly itemSiteIds: readonly string[];
 }
 
 /**
@@ -121,18 +140,110 @@ export interface SampleFilter {
  */
 const sampleTotals = perDatabase(() => new RevisionCache<number>(500));
 
-/** Live samples of some sites, newest first, with the filters applied. */
-export async function findSamples(siteIds: 'all' | readonly string[], filter: SampleFilter): Promise<Page<RecordView<SampleData>>> {
+/** Samples per pile under a filter, kept like the totals: the pile-code order pages through them. */
+const samplesPerPile = perDatabase(() => new RevisionCache<ReadonlyMap<string, number>>(100));
+
+type OrderTerm = [string, string];
+
+/**
+ * Each sort in its ascending form; descending is the exact reverse of every term, so each order
+ * is one walk of an index, forwards or backwards (0007 and 0009 read indexes), and every order
+ * ends on code (unique in a site, then the site) so pages never overlap. Sample weights may be
+ * unknown: they sort as the smallest, stated in both dialects (SQLite's own NULL order,
+ * which PostgreSQL reverses unless told).
+ */
+const ASCENDING: Record<Exclude<SampleSort, 'pileCode'>, readonly OrderTerm[]> = {
+  code: [['code', 'ASC'], ['siteId', 'ASC']],
+  collectedAt: [['collectedAt', 'ASC'], ['code', 'DESC'], ['siteId', 'DESC']],
+  sampleType: [['sampleType', 'ASC'], ['collectedAt', 'DESC'], ['code', 'ASC'], ['siteId', 'ASC']],
+  wetMassKg: [['wetMassKg', 'ASC NULLS FIRST'], ['collectedAt', 'DESC'], ['code', 'ASC'], ['siteId', 'ASC']],
+};
+
+/** Within one pile (the pile-code order): newest first ascending, its reverse descending. */
+const WITHIN_PILE: readonly OrderTerm[] = [['collectedAt', 'DESC'], ['code', 'ASC']];
+
+const REVERSED: Record<string, string> = { 'ASC': 'DESC', 'DESC': 'ASC', 'ASC NULLS FIRST': 'DESC NULLS LAST' };
+
+function ordered(terms: readonly OrderTerm[], direction: SortDirection): OrderTerm[] {
+  return terms.map(([column, way]) => [column, direction === 'asc' ? way : REVERSED[way]]);
+}
+
+/** The default order (no sort asked): newest first, then code, as the list always had it. */
+const NEWEST_FIRST: readonly OrderTerm[] = [['collectedAt', 'DESC'], ['code', 'ASC']];
+
+/**
+ * Live samples of some sites with the filters applied, newest first unless another sort is asked,
+ * each with its pile's code.
+ */
+export async function findSamples(siteIds: 'all' | readonly string[], filter: SampleFilter): Promise<SamplePage> {
   const where = sampleWhere(siteIds, filter);
-  const { limit, offset, ...filters } = filter;
+  const { limit, offset, sort, direction, ...filters } = filter;
   const totalKey = JSON.stringify([siteIds === 'all' ? 'all' : [...siteIds].sort(), filters]);
   // The revision is read before the rows, so the rows are at least as new as the total kept under it.
   const revision = await readDataRevision();
-  const [rows, total] = await Promise.all([
-    Sample.findAll({ attributes: [...SAMPLE_VIEW_COLUMNS], where, order: [['collectedAt', 'DESC'], ['code', 'ASC']], limit, offset, raw: true }),
-    sampleTotals().get(totalKey, revision, () => Sample.count({ where })),
+  const [rows, total] = sort === 'pileCode'
+    ? await byPileCode(siteIds, filter, where, totalKey, revision)
+    : await Promise.all([
+      Sample.findAll({
+        attributes: [...SAMPLE_VIEW_COLUMNS, 'siteId'], where, limit, offset, raw: true,
+        order: sort ? ordered(ASCENDING[sort], direction ?? 'asc') : [...NEWEST_FIRST],
+      }) as unknown as Promise<Record<string, unknown>[]>,
+      sampleTotals().get(totalKey, revision, () => Sample.count({ where })),
+    ]);
+  const pileCodes = await pileCodesOf(rows.map((row) => row['pileId'] as string));
+  const items = rows.map((row) => ({ ...sampleViewOfRow(row), pileCode: pileCodes.get(row['pileId'] as string) ?? '' }));
+  return { items, total, limit, offset, revision, itemSiteIds: rows.map((row) => row['siteId'] as string) };
+}
+
+/** The codes of these piles, by id (a page names a few piles: a site holds tens). */
+async function pileCodesOf(pileIds: readonly string[]): Promise<Map<string, string>> {
+  const unique = [...new Set(pileIds)];
+  if (unique.length === 0) {
+    return new Map();
+  }
+  const piles = (await Pile.findAll({ attributes: ['id', 'code'], where: { id: { [Op.in]: unique } }, raw: true })) as unknown as { id: string; code: string }[];
+  return new Map(piles.map((pile) => [pile.id, pile.code]));
+}
+
+/**
+ * A page in pile-code order without a join: the piles the caller may read by code (a site holds
+ * tens), how many matching samples each holds (one grouped count, kept per data revision), then
+ * each pile that the page overlaps read in its own index order (0009's pileId index), skipping
+ * into the first. Piles are ordered by code, then site, then id; samples within a pile newest
+ * first. Descending reverses all three.
+ */
+async function byPileCode(
+  siteIds: 'all' | readonly string[], filter: SampleFilter, where: WhereOptions, totalKey: string, revision: number,
+): Promise<[Record<string, unknown>[], number]> {
+  const direction = filter.direction ?? 'asc';
+  const pileWhere: WhereOptions = { ...siteWhere(siteIds, filter.siteId), ...(filter.pileId ? { id: filter.pileId } : {}) };
+  const [piles, counts] = await Promise.all([
+    Pile.findAll({ attributes: ['id'], where: pileWhere, order: ordered([['code', 'ASC'], ['siteId', 'ASC'], ['id', 'ASC']], direction), raw: true }) as unknown as Promise<{ id: string }[]>,
+    samplesPerPile().get(totalKey, revision, async () => {
+      const grouped = (await Sample.count({ where, group: ['pileId'] })) as unknown as { pileId: string; count: number | string }[];
+      return new Map(grouped.map((group) => [group.pileId, Number(group.count)]));
+    }),
   ]);
-  return { items: (rows as unknown as Record<string, unknown>[]).map(sampleViewOfRow), total, limit, offset };
+  const total = [...counts.values()].reduce((sum, count) => sum + count, 0);
+  const rows: Record<string, unknown>[] = [];
+  let skip = filter.offset;
+  for (const pile of piles) {
+    const held = counts.get(pile.id) ?? 0;
+    if (rows.length >= filter.limit) {
+      break;
+    }
+    if (skip >= held) {
+      skip -= held;
+      continue;
+    }
+    const page = (await Sample.findAll({
+      attributes: [...SAMPLE_VIEW_COLUMNS, 'siteId'], where: { ...where, pileId: pile.id } as WhereOptions,
+      order: ordered(WITHIN_PILE, direction), limit: filter.limit - rows.length, offset: skip, raw: true,
+    })) as unknown as Record<string, unknown>[];
+    rows.push(...page);
+    skip = 0;
+  }
+  return [rows, total];
 }
 
 /** The WHERE of a sample list: live samples of the sites the caller may read, with the filters applied. */

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { SAMPLE_TYPES } from '../../shared/sync/protocol';
 import { currentUser } from '../accounts/current-user';
 import { parseOrThrow } from '../lib/validate';
+import { SAMPLE_SORTS } from './capture.repository';
 import type { CaptureService } from './capture.service';
 
 /** Longest page the list routes return. */
@@ -22,9 +23,12 @@ const sampleListSchema = z
     codePrefix: z.string().regex(/^[A-Z0-9-]{1,24}$/).optional(),
     collectedFrom: z.iso.datetime({ offset: true }).optional(),
     collectedTo: z.iso.datetime({ offset: true }).optional(),
+    sort: z.enum(SAMPLE_SORTS).optional(),
+    direction: z.enum(['asc', 'desc']).optional(),
     ...paging,
   })
-  .strict();
+  .strict()
+  .refine((query) => query.direction === undefined || query.sort !== undefined, { path: ['direction'], message: 'A direction needs a sort column' });
 /** A pile edit names the revision it was made on and the fields it changes (never id or site). */
 const pilePatchSchema = z
   .object({

@@ -1,10 +1,14 @@
 import { randomUUID } from 'node:crypto';
-import type { PileData, SampleData } from '../../shared/sync/protocol';
+import type { PileData } from '../../shared/sync/protocol';
 import type { CurrentUser } from '../accounts/current-user';
 import { assertCan, can, readableSiteIds } from '../accounts/policy';
 import { AppError } from '../lib/errors';
 import type { SyncService } from '../sync/sync.service';
-import { findPile, findPiles, findSamples, type Page, type RecordView, type SampleFilter } from './capture.repository';
+import { findPile, findPiles, findSamples, type Page, type RecordView, type SampleFilter, type SampleListItem } from './capture.repository';
+import { gradesOfPage, type PageGrade } from './page-grades';
+
+/** A row of the Samples screen: the record, its pile's code, and its grade (assay, else calibrated pan estimate). */
+export type SampleRowView = SampleListItem & PageGrade;
 
 /** The device id the server writes under when a change comes from the web API rather than a device. */
 const WEB_DEVICE_ID = 'web';
@@ -54,8 +58,11 @@ export class CaptureService {
     return this.getPile(user, pileId);
   }
 
-  listSamples(user: CurrentUser, filter: SampleFilter): Promise<Page<RecordView<SampleData>>> {
+  /** `GET /api/samples`: a page of samples, each graded as the review desk grades it, for that page only. */
+  async listSamples(user: CurrentUser, filter: SampleFilter): Promise<Page<SampleRowView>> {
     assertCan(user, 'site:read');
-    return findSamples(readableSiteIds(user), filter);
+    const { items, total, limit, offset, revision, itemSiteIds } = await findSamples(readableSiteIds(user), filter);
+    const grades = await gradesOfPage(items.map((item, index) => ({ id: item.id, siteId: itemSiteIds[index], moisturePct: item.moisturePct })), revision);
+    return { items: items.map((item) => ({ ...item, ...(grades.get(item.id) ?? { gradeGpt: null, gradeSource: null }) })), total, limit, offset };
   }
 }

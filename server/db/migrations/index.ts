@@ -7,6 +7,7 @@ import { reviewDesk } from './0004-review-desk';
 import { labLoop } from './0006-lab-loop';
 import { readIndexes } from './0007-read-indexes';
 import { labelRanges } from './0008-label-ranges';
+import { sampleSortIndexes } from './0009-sample-sort-indexes';
 
 /** Every migration, in the order it runs. Append; never edit one that has shipped. */
-export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk, trialsEconomics, readIndexes, labelRanges];
+export const migrations: readonly Migration[] = [organizationsSitesUsers, devicesTokensMail, captureSyncPhotos, labLoop, reviewDesk, trialsEconomics, readIndexes, labelRanges, sampleSortIndexes];

@@ -42,6 +42,8 @@ describe('GET /api/samples paging and totals', () => {
       location: row.location, gpsAccuracyM: row.gpsAccuracyM, wetMassKg: row.wetMassKg, moisturePct: row.moisturePct, increments: row.increments,
       position: row.position, collectedAt: row.collectedAt.toISOString(), collectorId: row.collectorId, deviceId: row.deviceId,
       revision: Number(row.revision), updatedAt: (row.updatedAt as Date).toISOString(), createdById: row.createdById,
+      // What the Samples screen needs besides the record: no pan test or assay here, so no grade yet.
+      pileCode: pile.code, gradeGpt: null, gradeSource: null,
     }));
   }
 
