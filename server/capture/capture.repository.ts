@@ -190,19 +190,27 @@ export async function findSamples(siteIds: 'all' | readonly string[], filter: Sa
       }) as unknown as Promise<Record<string, unknown>[]>,
       sampleTotals().get(totalKey, revision, () => Sample.count({ where })),
     ]);
-  const pileCodes = await pileCodesOf(rows.map((row) => row['pileId'] as string));
-  const items = rows.map((row) => ({ ...sampleViewOfRow(row), pileCode: pileCodes.get(row['pileId'] as string) ?? '' }));
+  const codes = await pileCodesOf(rows.map((row) => row['pileId'] as string), revision);
+  const items = rows.map((row) => ({ ...sampleViewOfRow(row), pileCode: codes.get(row['pileId'] as string) ?? '' }));
   return { items, total, limit, offset, revision, itemSiteIds: rows.map((row) => row['siteId'] as string) };
 }
 
+/**
+ * Pile codes by pile id, kept per data revision (a pile's code changes only through sync, which
+ * moves it): the piles of every page are read once, not once a page.
+ */
+const pileCodes = perDatabase(() => new RevisionCache<ReadonlyMap<string, string>>(100));
+
 /** The codes of these piles, by id (a page names a few piles: a site holds tens). */
-async function pileCodesOf(pileIds: readonly string[]): Promise<Map<string, string>> {
-  const unique = [...new Set(pileIds)];
+async function pileCodesOf(pileIds: readonly string[], revision: number): Promise<ReadonlyMap<string, string>> {
+  const unique = [...new Set(pileIds)].sort();
   if (unique.length === 0) {
     return new Map();
   }
-  const piles = (await Pile.findAll({ attributes: ['id', 'code'], where: { id: { [Op.in]: unique } }, raw: true })) as unknown as { id: string; code: string }[];
-  return new Map(piles.map((pile) => [pile.id, pile.code]));
+  return pileCodes().get(JSON.stringify(unique), revision, async () => {
+    const piles = (await Pile.findAll({ attributes: ['id', 'code'], where: { id: { [Op.in]: unique } }, raw: true })) as unknown as { id: string; code: string }[];
+    return new Map(piles.map((pile) => [pile.id, pile.code]));
+  });
 }
 
 /**

@@ -69,6 +69,16 @@ async function panGrades(samples: readonly Pick<GradedSample, 'id' | 'moisturePc
   return grades;
 }
 
+/**
+ * The lab loop's current assays of these samples (`currentAssaysBySample`), asked only for those
+ * holding any current result: most samples of a page were never assayed, and one raw read of ids
+ * finds that out for the whole page where the lab loop's read takes two.
+ */
+async function assaysOf(sampleIds: readonly string[]): ReturnType<typeof currentAssaysBySample> {
+  const held = (await AssayResult.findAll({ attributes: ['sampleId'], where: { sampleId: { [Op.in]: [...sampleIds] }, supersededAt: null }, raw: true })) as unknown as { sampleId: string }[];
+  return currentAssaysBySample([...new Set(held.map((row) => row.sampleId))]);
+}
+
 /** What the fitted lines are made from besides the data revision: every import or superseded result changes it. */
 async function assayVersion(): Promise<string> {
   const row = (await AssayResult.findOne({
@@ -138,7 +148,7 @@ export async function gradesOfPage(samples: readonly GradedSample[], dataRevisio
   if (samples.length === 0) {
     return grades;
   }
-  const [assays, pans] = await Promise.all([currentAssaysBySample(samples.map((sample) => sample.id)), panGrades(samples)]);
+  const [assays, pans] = await Promise.all([assaysOf(samples.map((sample) => sample.id)), panGrades(samples)]);
   // The line matters only to samples graded from a pan test alone.
   const panOnlySites = [...new Set(samples.filter((sample) => !assays.has(sample.id) && pans.get(sample.id) != null).map((sample) => sample.siteId))];
   const calibrations = await calibrationsOf(panOnlySites, dataRevision);
