@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { unwrap } from './result';
-import { coneVolume, flatToppedVolume, pileVolume, sacksVolume, surveyedVolume } from './volume';
+import { coneVolume, flatToppedVolume, pileVolume, placeSpotHeights, sacksVolume, surveyedVolume } from './volume';
+import { parseFootprint } from './footprint';
 import { localPlane } from './geodesy';
 
 const ORIGIN = { lon: 30.05, lat: -1.95 };
@@ -163,6 +164,26 @@ describe('surveyedVolume', () => {
     const negative = surveyedVolume({ footprint: square(10), spotHeights: [at(0, 0, -1), { lon: Number.NaN, lat: 0, heightM: 1 }] });
     expect(!negative.ok && negative.errors.map((error) => error.code)).toEqual(['negative', 'not-a-number']);
     expect(surveyedVolume({ footprint: null, spotHeights: [at(0, 0, 1)] }).ok).toBe(false);
+  });
+});
+
+describe('placeSpotHeights', () => {
+  it('says of each point what the surveyed volume does with it, in the order taken', () => {
+    // A 12 m square toe with corners at (±6, ±6): a point on a corner adds nothing to a surface that
+    // already passes through that corner at 0 m (geometry of the triangulation, common practice, no source).
+    const footprint = unwrap(parseFootprint(square(12)));
+    const placements = placeSpotHeights(footprint, [at(0, 0, 3), at(50, 50, 9), at(0, 0.005, 3.1), at(6, 6, 0), at(2, 2, 2)]);
+    expect(placements.map((placement) => placement.status)).toEqual(['counted', 'outside', 'repeated', 'repeated', 'counted']);
+    expect(placements[2]).toEqual({ status: 'repeated', ofPoint: 0 });
+    expect(placements[3]).toEqual({ status: 'repeated', ofPoint: null });
+  });
+
+  it('counts for the volume exactly the points it places as counted', () => {
+    // The apex alone gives the square pyramid s²h/3 (closed form); the repeats and the far point change nothing.
+    const spots = [at(0, 0, 3), at(0, 0.005, 3.1), at(50, 50, 9), at(6, -6, 0)];
+    const counted = placeSpotHeights(unwrap(parseFootprint(square(12))), spots).filter((placement) => placement.status === 'counted');
+    expect(counted).toHaveLength(1);
+    expect(unwrap(surveyedVolume({ footprint: square(12), spotHeights: spots })).volumeM3).toBeCloseTo((144 * 3) / 3, 6);
   });
 });
 

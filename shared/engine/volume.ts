@@ -111,6 +111,35 @@ export function flatToppedVolume(input: {
   });
 }
 
+/**
+ * Where each spot height falls, in the order taken: counted; outside the footprint; or repeating
+ * (closer than 1 cm to) an earlier counted point (`ofPoint`, 0-based) or a toe corner (`ofPoint` null).
+ * `surveyedVolume` counts exactly the points placed `counted`; the capture form shows the same verdicts.
+ */
+export type SpotHeightPlacement =
+  | { readonly status: 'counted'; readonly point: PlanePoint }
+  | { readonly status: 'outside' }
+  | { readonly status: 'repeated'; readonly ofPoint: number | null };
+
+/** Places spot heights against a parsed footprint (see `SpotHeightPlacement`). */
+export function placeSpotHeights(footprint: Pick<Footprint, 'plane' | 'planeRing'>, spots: readonly LonLat[]): SpotHeightPlacement[] {
+  const { plane, planeRing } = footprint;
+  const counted: { point: PlanePoint; index: number | null }[] = planeRing.map((point) => ({ point, index: null }));
+  return spots.map((spot, index): SpotHeightPlacement => {
+    const point = plane.toPlane(spot);
+    if (!isInsideRing(point, planeRing)) {
+      return { status: 'outside' };
+    }
+    // 1 cm: two readings closer than that are the same place read twice.
+    const earlier = counted.find((existing) => Math.hypot(existing.point.x - point.x, existing.point.y - point.y) < 0.01);
+    if (earlier) {
+      return { status: 'repeated', ofPoint: earlier.index };
+    }
+    counted.push({ point, index });
+    return { status: 'counted', point };
+  });
+}
+
 /** Surveyed pile: a triangulated surface through spot heights (m above the base) and the toe at 0 m. */
 export function surveyedVolume(input: { readonly footprint: unknown; readonly spotHeights: readonly SpotHeight[] }): Result<VolumeEstimate> {
   const footprint = toFootprint(input.footprint);
@@ -133,26 +162,19 @@ export function surveyedVolume(input: { readonly footprint: unknown; readonly sp
   if (errors.length > 0) {
     return fail(...errors);
   }
-  const { planeRing, plane } = footprint.value;
+  const { planeRing } = footprint.value;
   const warnings: EngineWarning[] = [...footprint.value.warnings];
   const points: PlanePoint[] = [...planeRing];
   const heights: number[] = planeRing.map(() => 0);
-  let outside = 0;
-  let duplicates = 0;
-  for (const spot of input.spotHeights) {
-    const point = plane.toPlane(spot);
-    if (!isInsideRing(point, planeRing)) {
-      outside += 1;
-      continue;
+  const placements = placeSpotHeights(footprint.value, input.spotHeights);
+  placements.forEach((placement, index) => {
+    if (placement.status === 'counted') {
+      points.push(placement.point);
+      heights.push(input.spotHeights[index].heightM);
     }
-    // 1 cm: two readings closer than that are the same place read twice.
-    if (points.some((existing) => Math.hypot(existing.x - point.x, existing.y - point.y) < 0.01)) {
-      duplicates += 1;
-      continue;
-    }
-    points.push(point);
-    heights.push(spot.heightM);
-  }
+  });
+  const outside = placements.filter((placement) => placement.status === 'outside').length;
+  const duplicates = placements.filter((placement) => placement.status === 'repeated').length;
   if (outside > 0) {
     warnings.push({ code: 'spot-outside-footprint', message: `${outside} spot height(s) lie outside the footprint and were left out.` });
   }

@@ -14,17 +14,23 @@ import { PILE_MATERIALS, SHAPE_MODELS, parseEntityData, type PileData } from '..
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 import { CaptureStore } from '../../capture.store';
 import { FootprintMap } from '../../components/footprint-map';
-import { measurePileFootprint } from '../../engine-adapter';
+import { SpotHeightsEditor, type SpotHeightPoint } from '../../components/spot-heights-editor/spot-heights-editor';
+import { checkSpotHeights, estimateSurveyedPile, measurePileFootprint } from '../../engine-adapter';
 import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 
 /** GPS fixes worse than this (m) are dropped while walking the toe. */
 const MAX_FIX_ACCURACY_M = 10;
 const DRAFT_KEY = 'pile-form';
+/**
+ * Our own rule, not a standard: a surveyed pile is saved only with at least 3 spot heights inside its
+ * footprint. Fewer gives a surface of one or two ridges over the toe, which says little about the pile.
+ */
+const MIN_SURVEYED_SPOT_HEIGHTS = 3;
 
 /** A new pile: material, shape, height, hazards with their cautions, footprint walked or drawn, photos. */
 @Component({
   selector: 'hs-pile-form',
-  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, CautionCard, FootprintMap, TranslocoPipe, ...LOCALE_FORMAT_PIPES],
+  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule, CautionCard, FootprintMap, SpotHeightsEditor, TranslocoPipe, ...LOCALE_FORMAT_PIPES],
   template: `
     <section class="hs-page">
       <h1>{{ 'pileForm.title' | transloco }}</h1>
@@ -67,6 +73,18 @@ const DRAFT_KEY = 'pile-form';
           @if (lastAccuracyM() !== null) { · {{ 'pileForm.lastFix' | transloco: { metres: lastAccuracyM(), limit: maxAccuracy } }} }
           @if (footprintMeasure(); as measure) { @if ('areaM2' in measure) { · {{ 'pileForm.area' | transloco: { area: (measure.areaM2 | hsNumber: '1.0-0') } }} } @else { · {{ footprintProblemKey(measure.code) | transloco }} } }
         </p>
+        @if (shapeModel() === 'surveyed') {
+          <h2>{{ 'pileForm.spotHeights' | transloco }}</h2>
+          <hs-spot-heights-editor [footprint]="footprint()" [points]="spotHeights()" (pointsChange)="setSpotHeights($event)" />
+          <p role="status" data-testid="surveyed-estimate">
+            @if (surveyedEstimate(); as estimate) {
+              @if ('volumeM3' in estimate) {
+                {{ 'pileForm.surveyedEstimate' | transloco: { volume: (estimate.volumeM3 | hsNumber: '1.0-1'), tonnes: (estimate.dryTonnes | hsNumber: '1.0-1') } }}
+              } @else { {{ 'pileForm.surveyedNoEstimate' | transloco }} }
+            }
+            @if (countedSpotHeights() < minimumSpotHeights) { · {{ 'pileForm.spotHeightsNeeded' | transloco: { minimum: minimumSpotHeights, counted: countedSpotHeights() } }} }
+          </p>
+        }
         <p class="hs-muted">{{ 'common.planningStatement' | transloco }}</p>
 
         <label class="photo"><mat-icon aria-hidden="true">photo_camera</mat-icon> {{ 'pileForm.addPhoto' | transloco }}
@@ -96,6 +114,7 @@ export default class PileForm implements OnInit, OnDestroy {
   protected readonly hazards = HAZARDS;
   protected readonly cautionFor = cautionFor;
   protected readonly maxAccuracy = MAX_FIX_ACCURACY_M;
+  protected readonly minimumSpotHeights = MIN_SURVEYED_SPOT_HEIGHTS;
   protected readonly form = inject(NonNullableFormBuilder).group({
     siteId: ['', Validators.required],
     material: ['sluice-tailings' as PileData['material']],
@@ -110,10 +129,23 @@ export default class PileForm implements OnInit, OnDestroy {
   });
   protected readonly shapeModel = toSignal(this.form.controls.shapeModel.valueChanges, { initialValue: this.form.controls.shapeModel.value });
   protected readonly corners = signal<[number, number][]>([]);
+  protected readonly spotHeights = signal<readonly SpotHeightPoint[]>([]);
+  private readonly material = toSignal(this.form.controls.material.valueChanges, { initialValue: this.form.controls.material.value });
+  private readonly moisturePct = toSignal(this.form.controls.moisturePct.valueChanges, { initialValue: this.form.controls.moisturePct.value });
+  /** Spot heights the surveyed volume will count: inside the footprint and not a repeat. */
+  protected readonly countedSpotHeights = computed(() => checkSpotHeights(this.footprint(), this.spotHeights()).filter((check) => check.status === 'counted').length);
+  protected readonly surveyedEstimate = computed(() => {
+    if (this.shapeModel() !== 'surveyed' || this.countedSpotHeights() === 0) return null;
+    return estimateSurveyedPile({ material: this.material(), footprint: this.footprint(), moisturePct: this.moisturePct(), spotHeights: this.spotHeights() });
+  });
   protected readonly isWalking = signal(false);
   protected readonly lastAccuracyM = signal<number | null>(null);
   protected readonly pendingPhotos = signal<Blob[]>([]);
   protected readonly errors = signal<{ key: string; params: Record<string, unknown> }[]>([]);
+  protected readonly footprint = computed<PileData['footprint']>(() => {
+    const corners = this.corners();
+    return corners.length >= 3 ? { type: 'Polygon', coordinates: [[...corners, corners[0]]] } : null;
+  });
   protected readonly footprintMeasure = computed(() => {
     const footprint = this.footprint();
     return footprint ? measurePileFootprint(footprint) : null;
@@ -121,10 +153,12 @@ export default class PileForm implements OnInit, OnDestroy {
   private watchId: number | null = null;
 
   async ngOnInit(): Promise<void> {
-    const draft = await this.store.draft<{ form: Partial<ReturnType<PileForm["form"]["getRawValue"]>>; corners: [number, number][] }>(DRAFT_KEY);
+    const draft = await this.store.draft<{ form: Partial<ReturnType<PileForm["form"]["getRawValue"]>>; corners: [number, number][]; spotHeights?: SpotHeightPoint[] }>(DRAFT_KEY);
     if (draft) {
       this.form.patchValue(draft.form);
       this.corners.set(draft.corners);
+      // Drafts kept before spot heights were captured have none.
+      this.spotHeights.set(draft.spotHeights ?? []);
     }
     if (!this.form.value.siteId && this.store.sites()[0]) {
       this.form.patchValue({ siteId: this.store.sites()[0].id });
@@ -141,6 +175,11 @@ export default class PileForm implements OnInit, OnDestroy {
     if (code === 'self-intersection') return 'pileForm.footprintProblems.crosses';
     if (code === 'degenerate-ring') return 'pileForm.footprintProblems.noArea';
     return 'pileForm.footprintProblems.other';
+  }
+
+  protected setSpotHeights(points: readonly SpotHeightPoint[]): void {
+    this.spotHeights.set(points);
+    void this.keepDraft();
   }
 
   protected hasHazard(hazard: Hazard): boolean {
@@ -191,10 +230,16 @@ export default class PileForm implements OnInit, OnDestroy {
       return;
     }
     const isSacks = value.shapeModel === 'sacks';
+    const isSurveyed = value.shapeModel === 'surveyed';
+    if (isSurveyed && this.countedSpotHeights() < MIN_SURVEYED_SPOT_HEIGHTS) {
+      this.errors.set([{ key: 'pileForm.problems.fewSpotHeights', params: { minimum: MIN_SURVEYED_SPOT_HEIGHTS, counted: this.countedSpotHeights() } }]);
+      return;
+    }
     const pile: PileData = {
       id: crypto.randomUUID(), siteId: site.id, code: await this.store.nextCode(site.code, 'pile'), material: value.material,
       footprint: this.footprint(), heightM: isSacks ? null : value.heightM, shapeModel: value.shapeModel,
-      angleOfReposeDeg: value.shapeModel === 'flat-topped' ? value.angleOfReposeDeg : null, bulkDensityTPerM3: null, moisturePct: value.moisturePct, spotHeights: null,
+      angleOfReposeDeg: value.shapeModel === 'flat-topped' ? value.angleOfReposeDeg : null, bulkDensityTPerM3: null, moisturePct: value.moisturePct, // Every point kept is saved, flagged ones too (the estimate leaves them out with a warning): nothing measured is lost.
+      spotHeights: isSurveyed ? this.spotHeights().map(({ lon, lat, heightM }) => ({ lon, lat, heightM })) : null,
       sackCount: isSacks ? value.sackCount : null, sackMassKg: isSacks ? value.sackMassKg : null, hazards: value.hazards, notes: value.notes,
     };
     const checked = parseEntityData('pile', pile);
@@ -208,11 +253,6 @@ export default class PileForm implements OnInit, OnDestroy {
     await this.router.navigateByUrl('/capture');
   }
 
-  private footprint(): PileData['footprint'] {
-    const corners = this.corners();
-    return corners.length >= 3 ? { type: 'Polygon', coordinates: [[...corners, corners[0]]] } : null;
-  }
-
   private stopWalking(): void {
     if (this.watchId !== null) {
       navigator.geolocation.clearWatch(this.watchId);
@@ -222,6 +262,6 @@ export default class PileForm implements OnInit, OnDestroy {
   }
 
   private keepDraft(): Promise<void> {
-    return this.store.saveDraft(DRAFT_KEY, { form: this.form.getRawValue(), corners: this.corners() });
+    return this.store.saveDraft(DRAFT_KEY, { form: this.form.getRawValue(), corners: this.corners(), spotHeights: this.spotHeights() });
   }
 }
