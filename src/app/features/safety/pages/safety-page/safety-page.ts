@@ -1,15 +1,16 @@
 import { Component } from '@angular/core';
-import { CAUTIONS, PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { CAUTIONS } from '../../../../../../shared/safety/cautions';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 
-/** All safety cautions in one place, readable offline. */
+/** All safety cautions in one place, readable offline, in the crew's language. */
 @Component({
   selector: 'hs-safety-page',
-  imports: [CautionCard],
+  imports: [CautionCard, TranslocoPipe],
   template: `
     <section class="hs-page">
-      <h1>Safety at the piles</h1>
-      <p class="statement">{{ statement }}</p>
+      <h1>{{ 'safety.title' | transloco }}</h1>
+      <p class="statement">{{ 'common.planningStatement' | transloco }}</p>
       <div class="hs-card-grid">
         @for (caution of cautions; track caution.hazard) {
           <hs-caution-card [caution]="caution" />
@@ -21,5 +22,4 @@ import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 })
 export default class SafetyPage {
   protected readonly cautions = CAUTIONS;
-  protected readonly statement = PLANNING_ESTIMATE_STATEMENT;
 }
