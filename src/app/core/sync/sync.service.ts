@@ -1,8 +1,9 @@
 import { HttpClient, HttpErrorResponse } from '@angular/common/http';
-import { DOCUMENT, Injectable, inject, signal } from '@angular/core';
+import { DOCUMENT, Injectable, computed, inject, signal } from '@angular/core';
+import { toObservable } from '@angular/core/rxjs-interop';
 import { liveQuery } from 'dexie';
 import { firstValueFrom, fromEvent, interval, merge, Subject } from 'rxjs';
-import { exhaustMap, filter, startWith } from 'rxjs/operators';
+import { distinctUntilChanged, exhaustMap, filter, startWith } from 'rxjs/operators';
 import { nextRetryDelay } from '../../../../shared/sync/next-retry-delay';
 import type { DeviceRegistration, PullResponse, PushRequest, PushResponse } from '../../../../shared/sync/protocol';
 import { AuthSession } from '../auth/auth-session';
@@ -36,7 +37,10 @@ export class SyncService {
     });
     void this.db.syncState.get('lastSyncAt').then((row) => this.lastSyncAt.set((row?.value as string | undefined) ?? null));
     const online = this.window ? fromEvent(this.window, 'online') : new Subject<Event>();
-    merge(online, interval(SYNC_EVERY_MS), this.manual)
+    // A sync right after each sign-in, which is always online: the device gets its number for its codes
+    // (SITE-DEVICE-SEQ) before the crew leaves signal, and pulls what the site holds.
+    const signedIn = toObservable(computed(() => this.session.user()?.id ?? null)).pipe(filter((id) => id !== null), distinctUntilChanged());
+    merge(online, interval(SYNC_EVERY_MS), this.manual, signedIn)
       .pipe(startWith(null), filter(() => (this.window?.navigator.onLine ?? true) && this.session.user() !== null), exhaustMap(() => this.runOnce()))
       .subscribe();
   }
