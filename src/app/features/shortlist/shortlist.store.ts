@@ -2,7 +2,7 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { LonLat, ScenarioRanks } from '../../../../shared/engine';
-import { toApiProblem } from '../../core/http/api-error';
+import { toApiProblem, type ApiProblem } from '../../core/http/api-error';
 
 /** The economic parameters of a site, as `GET /api/economics/:siteId` answers (fractions, not percent). */
 export interface EconomicParameters {
@@ -94,7 +94,8 @@ export class ShortlistStore {
   readonly view = signal<ShortlistView | null>(null);
   readonly economics = signal<EconomicsView | null>(null);
   readonly isLoading = signal(false);
-  readonly problem = signal<string | null>(null);
+  /** Why the last load failed, as the API said it (the screen words it in the person's language). */
+  readonly problem = signal<ApiProblem | null>(null);
 
   async load(siteId: string): Promise<void> {
     this.isLoading.set(true);
@@ -107,7 +108,7 @@ export class ShortlistStore {
       this.view.set(view);
       this.economics.set(economics);
     } catch (error) {
-      this.problem.set(toApiProblem(error).message);
+      this.problem.set(toApiProblem(error));
     } finally {
       this.isLoading.set(false);
     }

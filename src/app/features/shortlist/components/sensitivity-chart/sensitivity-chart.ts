@@ -1,6 +1,10 @@
-import { Component, ElementRef, OnDestroy, effect, input, viewChild } from '@angular/core';
-import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip } from 'chart.js';
+import { formatPercent } from '@angular/common';
+import { Component, ElementRef, OnDestroy, computed, effect, inject, input, viewChild } from '@angular/core';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
+import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip, type ChartData } from 'chart.js';
 import type { ScenarioRanks } from '../../../../../../shared/engine';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 
 Chart.register(BarController, BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 
@@ -11,25 +15,27 @@ export interface SensitivityEntry {
   readonly netValueByScenario: Readonly<Record<keyof ScenarioRanks, number>>;
 }
 
-const SCENARIOS: readonly { key: keyof ScenarioRanks; label: (step: number) => string; colour: string }[] = [
-  { key: 'priceDown', label: (step) => `Price −${step} %`, colour: '#8d5a00' },
-  { key: 'recoveryDown', label: (step) => `Recovery −${step} %`, colour: '#c9872b' },
-  { key: 'base', label: () => 'As set', colour: '#1d3b53' },
-  { key: 'recoveryUp', label: (step) => `Recovery +${step} %`, colour: '#5b8fb9' },
-  { key: 'priceUp', label: (step) => `Price +${step} %`, colour: '#2e6b34' },
+/** The five cases, in order; each label is `shortlist.sensitivity.<key>` with the step as a percent. */
+const SCENARIOS: readonly { key: keyof ScenarioRanks; colour: string }[] = [
+  { key: 'priceDown', colour: '#8d5a00' },
+  { key: 'recoveryDown', colour: '#c9872b' },
+  { key: 'base', colour: '#1d3b53' },
+  { key: 'recoveryUp', colour: '#5b8fb9' },
+  { key: 'priceUp', colour: '#2e6b34' },
 ];
 
 /** Net value of each ranked pile with gold price and recovery moved ±step, as bars, with the ranks as a table. */
 @Component({
   selector: 'hs-sensitivity-chart',
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES],
   template: `
-    <div class="chart"><canvas #canvas role="img" [attr.aria-label]="'Net value per pile, ' + currency() + ', as set and with price and recovery moved'"></canvas></div>
+    <div class="chart"><canvas #canvas role="img" [attr.aria-label]="'shortlist.sensitivity.chartLabel' | transloco: { currency: currency() }"></canvas></div>
     <table class="ranks">
-      <caption>Rank under each case (1 = best)</caption>
-      <thead><tr><th scope="col">Pile</th>@for (scenario of scenarios; track scenario.key) { <th scope="col">{{ scenario.label(stepPercent()) }}</th> }</tr></thead>
+      <caption>{{ 'shortlist.sensitivity.caption' | transloco }}</caption>
+      <thead><tr><th scope="col">{{ 'shortlist.sensitivity.pile' | transloco }}</th>@for (scenario of scenarios; track scenario.key) { <th scope="col">{{ 'shortlist.sensitivity.' + scenario.key | transloco: { step: stepLabel() } }}</th> }</tr></thead>
       <tbody>
         @for (entry of entries(); track entry.code) {
-          <tr><th scope="row">{{ entry.code }}</th>@for (scenario of scenarios; track scenario.key) { <td>#{{ entry.ranks[scenario.key] }}</td> }</tr>
+          <tr><th scope="row">{{ entry.code }}</th>@for (scenario of scenarios; track scenario.key) { <td>#{{ entry.ranks[scenario.key] | hsNumber }}</td> }</tr>
         }
       </tbody>
     </table>
@@ -47,30 +53,42 @@ export class SensitivityChart implements OnDestroy {
   readonly step = input(0.2);
   readonly currency = input('USD');
   protected readonly scenarios = SCENARIOS;
-  protected readonly stepPercent = () => Math.round(this.step() * 100);
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
+  /** The step as the locale writes a percent: "20%" in English, "20 %" in French. */
+  protected readonly stepLabel = computed(() => formatPercent(Math.round(this.step() * 100) / 100, this.language.locale(), '1.0-0'));
   private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
   private chart: Chart | null = null;
 
   constructor() {
+    // Re-drawn when the figures or the language change: the legend, the axis title and the tick
+    // numbers (Chart.js formats them with Intl for the locale given) follow the language.
     effect(() => {
       const entries = this.entries();
-      const step = this.stepPercent();
-      const data = {
+      const step = this.stepLabel();
+      const locale = this.language.locale();
+      const axisTitle = this.transloco.translate('shortlist.sensitivity.axis', { currency: this.currency() });
+      const data: ChartData<'bar'> = {
         labels: entries.map((entry) => entry.code),
         datasets: SCENARIOS.map((scenario) => ({
-          label: scenario.label(step), backgroundColor: scenario.colour, data: entries.map((entry) => Math.round(entry.netValueByScenario[scenario.key])),
+          label: this.transloco.translate(`shortlist.sensitivity.${scenario.key}`, { step }),
+          backgroundColor: scenario.colour,
+          data: entries.map((entry) => Math.round(entry.netValueByScenario[scenario.key])),
         })),
       };
       if (this.chart) {
         this.chart.data = data;
+        this.chart.options.locale = locale;
+        const y = this.chart.options.scales?.['y'];
+        if (y && 'title' in y && y.title) y.title.text = axisTitle;
         this.chart.update('none');
       } else {
         this.chart = new Chart(this.canvas().nativeElement, {
           type: 'bar', data,
           options: {
-            responsive: true, maintainAspectRatio: false, animation: false,
+            responsive: true, maintainAspectRatio: false, animation: false, locale,
             plugins: { legend: { position: 'bottom', labels: { boxWidth: 12 } } },
-            scales: { y: { title: { display: true, text: `Net value (${this.currency()})` } } },
+            scales: { y: { title: { display: true, text: axisTitle } } },
           },
         });
       }

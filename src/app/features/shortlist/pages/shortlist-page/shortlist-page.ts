@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { formatNumber, formatPercent } from '@angular/common';
 import { Component, computed, effect, inject, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -8,13 +8,23 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSliderModule } from '@angular/material/slider';
+import { TranslocoPipe, TranslocoService } from '@jsverse/transloco';
 import { buildShortlist, type ShortlistEntry } from '../../../../../../shared/engine';
-import { CAUTIONS, PLANNING_ESTIMATE_STATEMENT } from '../../../../../../shared/safety/cautions';
+import { CAUTIONS } from '../../../../../../shared/safety/cautions';
 import { AuthSession } from '../../../../core/auth/auth-session';
-import { toApiProblem } from '../../../../core/http/api-error';
+import { toApiProblem, type ApiProblem } from '../../../../core/http/api-error';
+import { AppLanguage } from '../../../../i18n/app-language';
+import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
 import { SensitivityChart, type SensitivityEntry } from '../../components/sensitivity-chart/sensitivity-chart';
+import { PARAMETER_NAMES, assumption, thinDataReason, type ServerText, type ServerTextFormat } from '../../server-text';
 import { ShortlistStore, type EconomicParameters, type Overrides, type ShortlistRow } from '../../shortlist.store';
+
+/** Something the screen says: a translation key and the values it holds. */
+interface Message {
+  readonly key: string;
+  readonly params?: Readonly<Record<string, string | number>>;
+}
 
 /** A row as the screen shows it: the server's figures, or the device's what-if recompute of them. */
 type DisplayRow = ShortlistRow & { readonly isWhatIf: boolean };
@@ -22,23 +32,24 @@ type DisplayRow = ShortlistRow & { readonly isWhatIf: boolean };
 /** The parameters the manager edits, with fractions shown as percent. */
 interface ParameterField {
   readonly name: keyof EconomicParameters;
+  /** The translation key of its label. */
   readonly label: string;
   readonly isPercent: boolean;
   readonly step: number;
 }
 
 const PARAMETER_FIELDS: readonly ParameterField[] = [
-  { name: 'goldPricePerTroyOz', label: 'Gold price per troy ounce', isPercent: false, step: 10 },
-  { name: 'payableFraction', label: 'Payable by the buyer (%)', isPercent: true, step: 1 },
-  { name: 'haulCostPerTKm', label: 'Load and haul per t·km', isPercent: false, step: 0.05 },
-  { name: 'roadFactor', label: 'Road factor (road ÷ straight line)', isPercent: false, step: 0.05 },
-  { name: 'processingCostPerT', label: 'Processing per tonne', isPercent: false, step: 1 },
-  { name: 'fixedCostPerPile', label: 'Fixed cost per pile', isPercent: false, step: 10 },
-  { name: 'ownerShareOfGross', label: 'Owner and crew share of gross (%)', isPercent: true, step: 1 },
-  { name: 'confidenceLevel', label: 'Confidence level (%)', isPercent: true, step: 1 },
-  { name: 'defaultRecovery', label: 'Recovery until a trial is accepted (%)', isPercent: true, step: 1 },
-  { name: 'discrepancyTolerance', label: 'Trial discrepancy tolerance (%)', isPercent: true, step: 0.5 },
-  { name: 'minSamplesToRank', label: 'Fewest samples to rank a pile', isPercent: false, step: 1 },
+  { name: 'goldPricePerTroyOz', label: 'shortlist.parameters.fields.goldPricePerTroyOz', isPercent: false, step: 10 },
+  { name: 'payableFraction', label: 'shortlist.parameters.fields.payableFraction', isPercent: true, step: 1 },
+  { name: 'haulCostPerTKm', label: 'shortlist.parameters.fields.haulCostPerTKm', isPercent: false, step: 0.05 },
+  { name: 'roadFactor', label: 'shortlist.parameters.fields.roadFactor', isPercent: false, step: 0.05 },
+  { name: 'processingCostPerT', label: 'shortlist.parameters.fields.processingCostPerT', isPercent: false, step: 1 },
+  { name: 'fixedCostPerPile', label: 'shortlist.parameters.fields.fixedCostPerPile', isPercent: false, step: 10 },
+  { name: 'ownerShareOfGross', label: 'shortlist.parameters.fields.ownerShareOfGross', isPercent: true, step: 1 },
+  { name: 'confidenceLevel', label: 'shortlist.parameters.fields.confidenceLevel', isPercent: true, step: 1 },
+  { name: 'defaultRecovery', label: 'shortlist.parameters.fields.defaultRecovery', isPercent: true, step: 1 },
+  { name: 'discrepancyTolerance', label: 'shortlist.parameters.fields.discrepancyTolerance', isPercent: true, step: 0.5 },
+  { name: 'minSamplesToRank', label: 'shortlist.parameters.fields.minSamplesToRank', isPercent: false, step: 1 },
 ];
 
 const SAFETY_HAZARDS = ['mercury', 'silica-dust', 'unstable-face', 'cyanide'];
@@ -47,7 +58,7 @@ const SAFETY_HAZARDS = ['mercury', 'silica-dust', 'unstable-face', 'cyanide'];
 @Component({
   selector: 'hs-shortlist-page',
   imports: [
-    DatePipe, DecimalPipe, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule,
+    TranslocoPipe, LOCALE_FORMAT_PIPES, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule,
     MatSelectModule, MatSliderModule, CautionCard, SensitivityChart,
   ],
   templateUrl: './shortlist-page.html',
@@ -56,7 +67,8 @@ const SAFETY_HAZARDS = ['mercury', 'silica-dust', 'unstable-face', 'cyanide'];
 export default class ShortlistPage {
   protected readonly store = inject(ShortlistStore);
   private readonly session = inject(AuthSession);
-  protected readonly planningStatement = PLANNING_ESTIMATE_STATEMENT;
+  private readonly transloco = inject(TranslocoService);
+  private readonly language = inject(AppLanguage);
   protected readonly cautions = CAUTIONS.filter((caution) => SAFETY_HAZARDS.includes(caution.hazard));
   protected readonly parameterFields = PARAMETER_FIELDS;
   protected readonly Math = Math;
@@ -71,12 +83,17 @@ export default class ShortlistPage {
   protected readonly isWhatIf = computed(() => this.whatIfPrice() !== null || this.whatIfRecoveryPercent() !== null || this.whatIfHaulCost() !== null);
 
   protected readonly draft = signal<Record<string, number | string>>({});
-  protected readonly saveProblem = signal<string | null>(null);
-  protected readonly saveDetails = signal<readonly string[]>([]);
+  protected readonly saveProblem = signal<Message | null>(null);
+  protected readonly saveDetails = signal<ApiProblem['details']>([]);
   protected readonly isSaving = signal(false);
   protected readonly mailTo = signal('');
-  protected readonly mailStatus = signal<string | null>(null);
-  protected readonly downloadProblem = signal<string | null>(null);
+  protected readonly mailStatus = signal<Message | null>(null);
+  protected readonly downloadProblem = signal<Message | null>(null);
+  /** Why the shortlist could not be loaded, in the person's language. */
+  protected readonly loadProblem = computed<Message | null>(() => {
+    const problem = this.store.problem();
+    return problem ? this.problemMessage(problem, 'shortlist.problems.load') : null;
+  });
 
   protected readonly overrides = computed<Overrides>(() => {
     const overrides: Record<string, number> = {};
@@ -112,6 +129,31 @@ export default class ShortlistPage {
   protected readonly sensitivityEntries = computed<SensitivityEntry[]>(() =>
     this.rows().filter((row) => row.ranks && row.netValueByScenario).map((row) => ({ code: row.code, ranks: row.ranks!, netValueByScenario: row.netValueByScenario! })),
   );
+
+  /** The figures the server wrote into its reasons and assumptions, in this language's digits. */
+  private readonly serverTextFormat = computed<ServerTextFormat>(() => {
+    const locale = this.language.locale();
+    return {
+      number: (value) => formatNumber(value, locale, '1.0-2'),
+      percent: (value) => formatPercent(value, locale, '1.0-1'),
+      field: (name) => this.transloco.translate(`shortlist.parameters.fields.${name}`),
+    };
+  });
+
+  /** Why each pile too thin to rank is not ranked, joined, by pile id. */
+  protected readonly thinReasons = computed<ReadonlyMap<string, string>>(() => {
+    const format = this.serverTextFormat();
+    return new Map((this.store.view()?.rows ?? []).map((row) => [row.pileId, row.thinDataReasons.map((reason) => this.say(thinDataReason(reason, format))).join('; ')]));
+  });
+
+  /** The assumptions the shortlist rests on, said in the person's language. */
+  protected readonly assumptions = computed<readonly string[]>(() => {
+    const format = this.serverTextFormat();
+    return (this.store.view()?.assumptions ?? []).map((sentence) => this.say(assumption(sentence, format)));
+  });
+
+  /** A slider's thumb label in the locale's digits. */
+  protected readonly sliderLabel = (value: number): string => formatNumber(value, this.language.locale(), '1.0-2');
 
   constructor() {
     effect(() => {
@@ -154,7 +196,7 @@ export default class ShortlistPage {
     this.saveProblem.set(null);
     this.saveDetails.set([]);
     if (Object.keys(changes).length === 0) {
-      this.saveProblem.set('Nothing changed.');
+      this.saveProblem.set({ key: 'shortlist.problems.nothingChanged' });
       return;
     }
     this.isSaving.set(true);
@@ -163,8 +205,8 @@ export default class ShortlistPage {
       this.resetWhatIf();
     } catch (error) {
       const problem = toApiProblem(error);
-      this.saveProblem.set(problem.message);
-      this.saveDetails.set(problem.details.map((detail) => `${this.labelOf(detail.path)}: ${detail.message}`));
+      this.saveProblem.set(this.problemMessage(problem, 'shortlist.problems.save'));
+      this.saveDetails.set(problem.details);
     } finally {
       this.isSaving.set(false);
     }
@@ -177,7 +219,7 @@ export default class ShortlistPage {
     try {
       await this.store.downloadReport(siteId, format, this.overrides());
     } catch (error) {
-      this.downloadProblem.set(toApiProblem(error).message);
+      this.downloadProblem.set(this.problemMessage(toApiProblem(error), 'shortlist.problems.download'));
     }
   }
 
@@ -185,27 +227,47 @@ export default class ShortlistPage {
     const siteId = this.siteId();
     const to = this.mailTo().split(/[,;\s]+/).filter(Boolean);
     if (!siteId || to.length === 0) {
-      this.mailStatus.set('Give at least one e-mail address.');
+      this.mailStatus.set({ key: 'shortlist.report.needAddress' });
       return;
     }
-    this.mailStatus.set('Sending…');
+    this.mailStatus.set({ key: 'shortlist.report.sending' });
     try {
       const sent = await this.store.sendReport(siteId, to, this.overrides());
-      this.mailStatus.set(sent.status === 'sent' ? `Sent to ${to.join(', ')}.` : `Not sent: ${sent.errorMessage ?? sent.status}. It is kept in the Outbox.`);
+      this.mailStatus.set(sent.status === 'sent'
+        ? { key: 'shortlist.report.sent', params: { to: to.join(', ') } }
+        : { key: 'shortlist.report.notSent', params: { reason: sent.errorMessage ?? sent.status } });
     } catch (error) {
       const problem = toApiProblem(error);
-      this.mailStatus.set([problem.message, ...problem.details.map((detail) => detail.message)].join(': '));
+      const withDetails = { ...problem, message: [problem.message, ...problem.details.map((detail) => detail.message)].join(': ') };
+      this.mailStatus.set(this.problemMessage(withDetails, 'shortlist.report.sendProblem'));
     }
   }
 
+  /** A parameter's label in the person's language; a name the screen does not know stays as the server gave it. */
   protected labelOf(name: string): string {
-    return PARAMETER_FIELDS.find((field) => field.name === name)?.label ?? name;
+    this.language.active();
+    return PARAMETER_NAMES.includes(name as keyof EconomicParameters) ? this.transloco.translate(`shortlist.parameters.fields.${name}`) : name;
   }
 
+  /**
+   * A recorded value in the locale's digits: a fraction as a percent, a number without grouping
+   * (as the manager typed it, so "2000 → 1600"), a currency code as written.
+   */
   protected formatChange(name: string, value: string | number | null): string {
     const field = PARAMETER_FIELDS.find((candidate) => candidate.name === name);
     if (typeof value !== 'number') return String(value ?? '—');
-    return field?.isPercent ? `${Math.round(value * 1000) / 10} %` : String(value);
+    const locale = this.language.locale();
+    if (field?.isPercent) return formatPercent(value, locale, '1.0-1');
+    return new Intl.NumberFormat(locale, { useGrouping: false, maximumFractionDigits: 6 }).format(value);
+  }
+
+  /** A refusal from the API: no signal said as such; otherwise the screen's words with the server's reason. */
+  private problemMessage(problem: ApiProblem, key: string): Message {
+    return problem.code === 'offline' ? { key: 'shortlist.problems.offline' } : { key, params: { message: problem.message } };
+  }
+
+  private say(text: ServerText): string {
+    return 'key' in text ? this.transloco.translate(text.key, text.params) : text.text;
   }
 
   private toDraft(parameters: EconomicParameters): Record<string, number | string> {
