@@ -83,7 +83,10 @@ export class SensitivityChart implements OnDestroy {
         if (y && 'title' in y && y.title) y.title.text = axisTitle;
         this.chart.update('none');
       } else {
-        this.chart = new Chart(this.canvas().nativeElement, {
+        // No 2D canvas (a locked-down browser, a test's DOM): the rank table below still says it all.
+        const context = this.canvas().nativeElement.getContext('2d');
+        if (!context) return;
+        this.chart = new Chart(context, {
           type: 'bar', data,
           options: {
             responsive: true, maintainAspectRatio: false, animation: false, locale,
