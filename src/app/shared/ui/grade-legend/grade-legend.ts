@@ -1,21 +1,24 @@
 import { Component, computed, input } from '@angular/core';
-import { DecimalPipe } from '@angular/common';
+import { TranslocoPipe } from '@jsverse/transloco';
+import { LOCALE_FORMAT_PIPES } from '../../../i18n/locale-format.pipes';
 import { rampGradientCss } from '../colour-ramp/colour-ramp';
 
-/** The heat-map legend: the ramp with grade numbers under it (never colour alone). */
+/** The heat-map legend: the ramp with grade numbers under it (never colour alone), in the reader's language. */
 @Component({
   selector: 'hs-grade-legend',
-  imports: [DecimalPipe],
+  imports: [TranslocoPipe, LOCALE_FORMAT_PIPES],
   template: `
-    <figure class="legend" role="img" [attr.aria-label]="label()">
-      <figcaption>{{ title() }}</figcaption>
+    @let heading = title() ?? ('ui.gradeLegend.title' | transloco);
+    <figure class="legend" role="img"
+      [attr.aria-label]="'ui.gradeLegend.label' | transloco: { title: heading, min: (minValue() | hsNumber: '1.2-2'), max: (maxValue() | hsNumber: '1.2-2'), unit: unit() }">
+      <figcaption>{{ heading }}</figcaption>
       <div class="bar" [style.background]="gradient"></div>
       <div class="ticks">
         @for (tick of ticks(); track $index) {
-          <span>{{ tick | number: '1.0-2' }}</span>
+          <span>{{ tick | hsNumber: '1.0-2' }}</span>
         }
       </div>
-      <div class="ends"><span>low</span><span>{{ unit() }}</span><span>high</span></div>
+      <div class="ends"><span>{{ 'ui.gradeLegend.low' | transloco }}</span><span>{{ unit() }}</span><span>{{ 'ui.gradeLegend.high' | transloco }}</span></div>
     </figure>
   `,
   styles: `
@@ -29,7 +32,8 @@ import { rampGradientCss } from '../colour-ramp/colour-ramp';
 export class GradeLegend {
   readonly minValue = input.required<number>();
   readonly maxValue = input.required<number>();
-  readonly title = input('Grade');
+  /** The caption, already in the reader's language; without one the legend says "Grade". */
+  readonly title = input<string | null>(null);
   readonly unit = input('g/t');
   /** Number of labelled ticks, ends included. */
   readonly tickCount = input(5);
@@ -40,5 +44,4 @@ export class GradeLegend {
     const high = this.maxValue();
     return Array.from({ length: count }, (_unused, index) => low + ((high - low) * index) / (count - 1));
   });
-  protected readonly label = computed(() => `${this.title()} legend from ${this.minValue().toFixed(2)} to ${this.maxValue().toFixed(2)} ${this.unit()}, light low to dark high`);
 }

@@ -1,6 +1,7 @@
 import { Component, DestroyRef, ElementRef, afterNextRender, inject, input, output, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { TranslocoPipe } from '@jsverse/transloco';
 import type { decodeLabel as DecodeLabel } from './decode-label';
 
 /** Frames are shrunk to this width before decoding: a label filling a third of the view still has ~4 px per module. */
@@ -8,24 +9,27 @@ const DECODE_WIDTH = 480;
 /** Decode at most this often; a low-end phone spends ~30 ms a frame, so the camera preview stays smooth. */
 const DECODE_INTERVAL_MS = 120;
 
+/** Why the camera cannot scan: the keys of the messages that send the person to typing the code. */
+type LabelScannerProblem = 'ui.labelScanner.noCamera' | 'ui.labelScanner.cameraRefused';
+
 /**
  * Opens the back camera and reads sample labels (QR codes) until one is found. Emits the code
  * once and stops the camera; the page decides whether the code may be used.
  */
 @Component({
   selector: 'hs-label-scanner',
-  imports: [MatButtonModule, MatIconModule],
+  imports: [MatButtonModule, MatIconModule, TranslocoPipe],
   template: `
-    <div class="scanner" role="region" aria-label="Label scanner">
+    <div class="scanner" role="region" [attr.aria-label]="'ui.labelScanner.region' | transloco">
       @if (problem(); as problem) {
-        <p class="problem" role="alert"><mat-icon aria-hidden="true">no_photography</mat-icon> {{ problem }}</p>
+        <p class="problem" role="alert"><mat-icon aria-hidden="true">no_photography</mat-icon> {{ problem | transloco }}</p>
       } @else {
         <!-- The preview needs no captions: it shows the camera, and the status line below says what happens. -->
         <video #video class="preview" playsinline muted aria-hidden="true"></video>
-        <p role="status" class="status">{{ hint() }}</p>
+        <p role="status" class="status">{{ hint() ?? ('ui.labelScanner.hint' | transloco) }}</p>
       }
-      @if (notLabel(); as text) { <p class="problem" role="alert">That QR code is not a sample label ({{ text }}).</p> }
-      <button mat-stroked-button type="button" (click)="stopAndCancel()"><mat-icon>close</mat-icon> Stop scanning</button>
+      @if (notLabel(); as text) { <p class="problem" role="alert">{{ 'ui.labelScanner.notALabel' | transloco: { text } }}</p> }
+      <button mat-stroked-button type="button" (click)="stopAndCancel()"><mat-icon aria-hidden="true">close</mat-icon> {{ 'ui.labelScanner.stop' | transloco }}</button>
     </div>
   `,
   styles: `
@@ -37,14 +41,18 @@ const DECODE_INTERVAL_MS = 120;
   `,
 })
 export class LabelScanner {
-  /** What to tell the person while the camera looks for a label. */
-  readonly hint = input('Hold the label inside the picture, about a hand away.');
+  /**
+   * What to tell the person while the camera looks for a label, already in their language; without
+   * one the scanner asks them to hold the label in the picture.
+   */
+  readonly hint = input<string | null>(null);
   /** The sample code read from a label. */
   readonly codeRead = output<string>();
   /** The person stopped scanning (or the camera could not start and they closed it). */
   readonly cancelled = output<void>();
 
-  protected readonly problem = signal<string | null>(null);
+  /** Why the camera cannot scan, as a translation key. */
+  protected readonly problem = signal<LabelScannerProblem | null>(null);
   protected readonly notLabel = signal<string | null>(null);
   private readonly video = viewChild<ElementRef<HTMLVideoElement>>('video');
   private stream: MediaStream | null = null;
@@ -63,13 +71,13 @@ export class LabelScanner {
 
   private async startCamera(): Promise<void> {
     if (!navigator.mediaDevices?.getUserMedia) {
-      this.problem.set('This browser cannot open the camera here. Type the code from the label instead.');
+      this.problem.set('ui.labelScanner.noCamera');
       return;
     }
     try {
       this.stream = await navigator.mediaDevices.getUserMedia({ video: { facingMode: { ideal: 'environment' } }, audio: false });
     } catch {
-      this.problem.set('The camera did not open (permission refused or in use). Type the code from the label instead.');
+      this.problem.set('ui.labelScanner.cameraRefused');
       return;
     }
     const video = this.video()?.nativeElement;

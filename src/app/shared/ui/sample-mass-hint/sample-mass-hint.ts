@@ -1,7 +1,8 @@
 import { Component, computed, input } from '@angular/core';
-import { DecimalPipe } from '@angular/common';
 import { MatIconModule } from '@angular/material/icon';
+import { TranslocoPipe } from '@jsverse/transloco';
 import { minimumSampleMass, samplingErrorForMass } from '../../../../../shared/engine';
+import { LOCALE_FORMAT_PIPES } from '../../../i18n/locale-format.pipes';
 
 /** Default target: a relative SD of 10 % for the fundamental error (common practice, no source). */
 export const DEFAULT_TARGET_RELATIVE_SD = 0.1;
@@ -13,17 +14,21 @@ export const DEFAULT_TARGET_RELATIVE_SD = 0.1;
  */
 @Component({
   selector: 'hs-sample-mass-hint',
-  imports: [DecimalPipe, MatIconModule],
+  imports: [MatIconModule, TranslocoPipe, LOCALE_FORMAT_PIPES],
   template: `
     @if (advice(); as advice) {
       @if (advice.isTooSmall) {
         <aside class="hint" role="status">
           <mat-icon aria-hidden="true">scale</mat-icon>
+          <!-- The minimum stands out in bold, so the sentence comes in three keys: before, the minimum, after. -->
           <p>
-            This sample is {{ massKg() | number: '1.0-2' }} kg. For a fundamental error of ±{{ targetRelativeSd() * 100 | number: '1.0-0' }} %
-            (1 SD) at {{ topSizeMm() | number: '1.0-2' }} mm top size, Gy's formula asks for at least
-            <strong>{{ advice.minimumMassKg | number: '1.0-2' }} kg</strong>; as taken it carries about
-            ±{{ advice.relativeSd * 100 | number: '1.0-0' }} %.
+            {{ 'ui.sampleMassHint.lead' | transloco: {
+              mass: (massKg() | hsNumber: '1.0-2'),
+              target: (targetRelativeSd() * 100 | hsNumber: '1.0-0'),
+              topSize: (topSizeMm() | hsNumber: '1.0-2')
+            } }}
+            <strong>{{ 'ui.sampleMassHint.minimum' | transloco: { minimum: (advice.minimumMassKg | hsNumber: '1.0-2') } }}</strong>{{
+              'ui.sampleMassHint.asTaken' | transloco: { error: (advice.relativeSd * 100 | hsNumber: '1.0-0') } }}
           </p>
         </aside>
       }
