@@ -2,9 +2,9 @@
 // and the page is closed at once, at several moments in the middle of the save: reopened, every
 // record on the device has its outbox entry and every outbox entry its record (a record with no
 // entry would never sync; an entry with no record would sync something the crew cannot see).
-// A full phone is covered by src/app/features/capture/capture.store.spec.ts (IndexedDB refusing the
-// write with QuotaExceededError): Chromium's quota override over DevTools was tried here and did not
-// hold once the page had its service worker (writes of 100 kB still went through under a 1 kB quota).
+// A full phone is e2e/full-phone.e2e.mjs (and capture.store.spec.ts). Chromium's DevTools quota
+// override set below the usage is not enforced for IndexedDB, with or without a service worker; that
+// test uses a small real quota instead.
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
