@@ -58,7 +58,8 @@ async function main(): Promise<void> {
     };
     const baseline = await load(geologist, [{ path: '/api/health' }]);
     // GET /api/me is the floor of any signed-in read: the token check and the user loaded fresh
-    // (three small queries), plus the profile's two; a paged read cannot be cheaper than that.
+    // (one query: user, revoked sign-in and memberships), plus the profile's sites and device; a
+    // paged read cannot be cheaper than that.
     const routes = [
       { name: 'GET /api/me (sign-in floor of every signed-in read)', token: geologist, requests: [{ path: '/api/me' }], isPagedRead: false },
       { name: `GET /api/samples paged (${PAGE} of ${size.samples.toLocaleString('en')}, pages all over)`, token: geologist, requests: spread(40, (index) => `/api/samples?siteId=${site}&limit=${PAGE}&offset=${((index * 37) % pages) * PAGE}`), isPagedRead: true },
