@@ -1,6 +1,5 @@
 import { Injectable, inject } from '@angular/core';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { Router } from '@angular/router';
 import { TranslocoService } from '@jsverse/transloco';
 import { StorageFullError, isStorageFull } from './storage-full';
 
@@ -13,7 +12,6 @@ import { StorageFullError, isStorageFull } from './storage-full';
 @Injectable({ providedIn: 'root' })
 export class StorageFullNotice {
   private readonly snackBar = inject(MatSnackBar);
-  private readonly router = inject(Router);
   private readonly transloco = inject(TranslocoService);
   /** One notice at a time: draft saves while typing would otherwise stack them. */
   private isShown = false;
@@ -29,14 +27,17 @@ export class StorageFullNotice {
     }
   }
 
-  /** The message stays until dismissed (no timeout: a crew member may be looking at the pile, not the phone). */
+  /**
+   * The message stays until dismissed (no timeout: a crew member may be looking at the pile, not the
+   * phone). It sits at the top, clear of the Save button it asks the crew to tap again, and its one
+   * button only closes it: leaving the form would lose what the phone had no room to keep.
+   */
   show(): void {
     if (this.isShown) return;
     this.isShown = true;
     const reference = this.snackBar.open(this.transloco.translate('core.storageFull.message'), this.transloco.translate('core.storageFull.action'), {
-      politeness: 'assertive', panelClass: 'storage-full-notice',
+      politeness: 'assertive', panelClass: 'storage-full-notice', verticalPosition: 'top',
     });
-    reference.onAction().subscribe(() => void this.router.navigateByUrl('/sync'));
     reference.afterDismissed().subscribe(() => (this.isShown = false));
   }
 }

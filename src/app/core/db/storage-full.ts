@@ -18,3 +18,15 @@ export function isStorageFull(error: unknown, depth = 0): boolean {
   if (isStorageFull(candidate.inner, depth + 1)) return true;
   return Array.isArray(candidate.failures) && candidate.failures.some((failure) => isStorageFull(failure, depth + 1));
 }
+
+/**
+ * Runs a form's save; when the phone is full (the notice is already on screen) it ends quietly, so
+ * the form stays open with what was typed and the crew can tap Save again once there is room.
+ */
+export async function keepFormIfStorageFull(save: () => Promise<void>): Promise<void> {
+  try {
+    await save();
+  } catch (error) {
+    if (!(error instanceof StorageFullError)) throw error;
+  }
+}

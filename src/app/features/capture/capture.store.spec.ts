@@ -69,7 +69,18 @@ describe('CaptureStore writes on the device', () => {
     expect(await db.photos.count()).toBe(0);
     expect((await db.outbox.toArray()).map((entry) => entry.id)).toEqual(['5b000000-0000-4000-8000-000000000002']); // what was saved before is safe
     expect(photoWrites).toHaveBeenCalledTimes(2);
-    expect(snackBar.open).toHaveBeenCalledWith(expect.stringContaining('This phone is full'), 'See storage', expect.objectContaining({ politeness: 'assertive' }));
+    // At the top, clear of the Save button the message asks for; its button only closes it (leaving would lose the form).
+    expect(snackBar.open).toHaveBeenCalledWith(expect.stringContaining('This phone is full'), 'OK', expect.objectContaining({ politeness: 'assertive', verticalPosition: 'top' }));
+  });
+
+  it('on a full phone, the next code is refused like the record itself: notice shown, the counter not moved', async () => {
+    expect(await store.nextCode('JR', 'sample')).toBe('JR-07-0001');
+    jest.spyOn(db.syncState, 'put').mockRejectedValue(phoneIsFull());
+
+    await expect(store.nextCode('JR', 'sample')).rejects.toBeInstanceOf(StorageFullError);
+    expect(snackBar.open).toHaveBeenCalledTimes(1);
+    jest.restoreAllMocks();
+    expect(await store.nextCode('JR', 'sample')).toBe('JR-07-0002');
   });
 
   it('a refused draft shows the notice once and does not throw into the form while typing', async () => {

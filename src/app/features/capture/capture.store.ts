@@ -50,11 +50,12 @@ export class CaptureStore {
   async nextCode(siteCode: string, kind: 'pile' | 'sample'): Promise<string> {
     const deviceNumber = (await this.sync.deviceNumber()) ?? fallbackDeviceNumber(await this.sync.deviceId());
     const key = `sequence:${kind}:${siteCode}`;
-    return this.db.transaction('rw', this.db.syncState, async () => {
+    // A full phone refuses the counter too: the notice shows and the form keeps what was typed.
+    return this.storageFull.guard(() => this.db.transaction('rw', this.db.syncState, async () => {
       const sequence = (((await this.db.syncState.get(key))?.value as number | undefined) ?? 0) + 1;
       await this.db.syncState.put({ key, value: sequence });
       return makeHumanCode({ siteCode, deviceNumber, sequence, kind });
-    });
+    }));
   }
 
   /** True when a sample on this device (live or deleted) already carries the code; the server refuses a repeat at push too. */

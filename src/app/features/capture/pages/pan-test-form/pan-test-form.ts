@@ -10,6 +10,7 @@ import { Router } from '@angular/router';
 import { TranslocoPipe } from '@jsverse/transloco';
 import { LOCALE_FORMAT_PIPES } from '../../../../i18n/locale-format.pipes';
 import { COLOUR_SIZE_CLASSES, parseEntityData, type PanTestData } from '../../../../../../shared/sync/protocol';
+import { keepFormIfStorageFull } from '../../../../core/db/storage-full';
 import { CaptureStore } from '../../capture.store';
 import { estimatePanGrade } from '../../engine-adapter';
 
@@ -22,7 +23,7 @@ type SizeClass = (typeof COLOUR_SIZE_CLASSES)[number];
   template: `
     <section class="hs-page">
       <h1>{{ 'panTestForm.title' | transloco }}</h1>
-      <form [formGroup]="form" (ngSubmit)="savePanTest()">
+      <form [formGroup]="form" (ngSubmit)="submit()">
         <mat-form-field><mat-label>{{ 'panTestForm.sample' | transloco }}</mat-label>
           <mat-select formControlName="sampleId">@for (sample of store.samples(); track sample.id) { <mat-option [value]="sample.id">{{ sample.code }}</mat-option> }</mat-select>
         </mat-form-field>
@@ -85,7 +86,12 @@ export default class PanTestForm {
     this.counts.update((counts) => ({ ...counts, [sizeClass]: Math.max(0, counts[sizeClass] + step) }));
   }
 
-  protected async savePanTest(): Promise<void> {
+  /** Save; on a full phone the notice shows and the form stays as it is. */
+  protected submit(): Promise<void> {
+    return keepFormIfStorageFull(() => this.savePanTest());
+  }
+
+  private async savePanTest(): Promise<void> {
     const value = this.form.getRawValue();
     const panTest: PanTestData = {
       id: crypto.randomUUID(), sampleId: value.sampleId, massPannedKg: value.massPannedKg ?? 0, colours: this.colours(),

@@ -12,6 +12,7 @@ import { TranslocoPipe } from '@jsverse/transloco';
 import { HAZARDS, cautionFor, type Hazard } from '../../../../../../shared/safety/cautions';
 import { PILE_MATERIALS, SHAPE_MODELS, parseEntityData, type PileData } from '../../../../../../shared/sync/protocol';
 import { CautionCard } from '../../../../shared/ui/caution-card/caution-card';
+import { keepFormIfStorageFull } from '../../../../core/db/storage-full';
 import { CaptureStore } from '../../capture.store';
 import { FootprintMap } from '../../components/footprint-map';
 import { SpotHeightsEditor, type SpotHeightPoint } from '../../components/spot-heights-editor/spot-heights-editor';
@@ -34,7 +35,7 @@ const MIN_SURVEYED_SPOT_HEIGHTS = 3;
   template: `
     <section class="hs-page">
       <h1>{{ 'pileForm.title' | transloco }}</h1>
-      <form [formGroup]="form" (ngSubmit)="savePile()">
+      <form [formGroup]="form" (ngSubmit)="submit()">
         <mat-form-field><mat-label>{{ 'pileForm.site' | transloco }}</mat-label>
           <mat-select formControlName="siteId">@for (site of store.sites(); track site.id) { <mat-option [value]="site.id">{{ site.code }} {{ site.name }}</mat-option> }</mat-select>
         </mat-form-field>
@@ -222,7 +223,12 @@ export default class PileForm implements OnInit, OnDestroy {
     }
   }
 
-  protected async savePile(): Promise<void> {
+  /** Save; on a full phone the notice shows and the form stays as it is. */
+  protected submit(): Promise<void> {
+    return keepFormIfStorageFull(() => this.savePile());
+  }
+
+  private async savePile(): Promise<void> {
     const value = this.form.getRawValue();
     const site = this.store.sites().find((candidate) => candidate.id === value.siteId);
     if (!site) {

@@ -1,6 +1,7 @@
 import { signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { Router, provideRouter } from '@angular/router';
+import { StorageFullError } from '../../../../core/db/storage-full';
 import { AppLanguage } from '../../../../i18n/app-language';
 import { CaptureStore } from '../../capture.store';
 import SampleForm from './sample-form';
@@ -62,5 +63,18 @@ describe('SampleForm', () => {
 
     expect(page.querySelectorAll('[role="alert"]')).toHaveLength(0);
     expect(store.saveSample).toHaveBeenCalledWith(expect.objectContaining({ code: 'JR-03-0001', pileId: PILE.id, wetMassKg: 10.5 }), []);
+  });
+
+  it('stays open with what was typed when the phone is full (the store has shown the notice), and goes nowhere', async () => {
+    const { form, submit, store } = await render('en');
+    store.saveSample.mockRejectedValueOnce(new StorageFullError(new DOMException('full', 'QuotaExceededError')));
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigateByUrl');
+
+    form.patchValue({ pileId: PILE.id, wetMassKg: 10.5 });
+    await submit();
+
+    expect(store.saveSample).toHaveBeenCalledTimes(1);
+    expect(navigate).not.toHaveBeenCalled();
+    expect((form as unknown as { getRawValue(): { wetMassKg: number } }).getRawValue().wetMassKg).toBe(10.5);
   });
 });

@@ -11,6 +11,7 @@ import { TranslocoPipe } from '@jsverse/transloco';
 import { parseHumanCode } from '../../../../../../shared/sync/human-code';
 import { SAMPLE_TYPES, parseEntityData, type SampleData } from '../../../../../../shared/sync/protocol';
 import { LabelScanner } from '../../../../shared/ui/label-scanner/label-scanner';
+import { keepFormIfStorageFull } from '../../../../core/db/storage-full';
 import { CaptureStore } from '../../capture.store';
 
 /** A message by translation key, translated when drawn (so a language switch redraws it). */
@@ -26,7 +27,7 @@ interface TranslatedText {
   template: `
     <section class="hs-page">
       <h1>{{ 'sampleForm.title' | transloco }}</h1>
-      <form [formGroup]="form" (ngSubmit)="saveSample()">
+      <form [formGroup]="form" (ngSubmit)="submit()">
         <mat-form-field><mat-label>{{ 'sampleForm.pile' | transloco }}</mat-label>
           <mat-select formControlName="pileId">@for (pile of store.livePiles(); track pile.id) { <mat-option [value]="pile.id">{{ pile.code }}</mat-option> }</mat-select>
         </mat-form-field>
@@ -42,7 +43,7 @@ interface TranslatedText {
           <mat-form-field><mat-label>{{ 'sampleForm.standard' | transloco }}</mat-label><input matInput formControlName="standardId" /></mat-form-field>
         }
         <div class="label-code">
-          <mat-form-field><mat-label>{{ 'sampleForm.labelCode' | transloco }}</mat-label>
+          <mat-form-field subscriptSizing="dynamic"><mat-label>{{ 'sampleForm.labelCode' | transloco }}</mat-label>
             <input matInput formControlName="labelCode" autocapitalize="characters" autocomplete="off" spellcheck="false" data-testid="label-code" />
             <mat-hint>{{ 'sampleForm.labelCodeHint' | transloco }}</mat-hint>
           </mat-form-field>
@@ -146,7 +147,12 @@ export default class SampleForm {
     }
   }
 
-  protected async saveSample(): Promise<void> {
+  /** Save; on a full phone the notice shows and the form stays as it is. */
+  protected submit(): Promise<void> {
+    return keepFormIfStorageFull(() => this.saveSample());
+  }
+
+  private async saveSample(): Promise<void> {
     const value = this.form.getRawValue();
     const pile = this.store.livePiles().find((candidate) => candidate.id === value.pileId);
     const site = this.store.sites().find((candidate) => candidate.id === pile?.siteId);
