@@ -1,4 +1,4 @@
-import { Op, type Model, type ModelStatic, type Transaction } from 'sequelize';
+import { DataTypes, Op, type Model, type ModelStatic, type Transaction } from 'sequelize';
 import type { EntityData, SyncEntity } from '../../shared/sync/protocol';
 import { insertRows } from './insert-rows';
 
@@ -74,8 +74,11 @@ export function tableRecordStore<E extends SyncEntity>(options: TableStoreOption
     }
     return data as EntityData[E];
   };
-  const toStored = (row: Model): StoredRecord<E> => {
-    const plain = row.get({ plain: true }) as Record<string, unknown>;
+  // Made on first read: the store is declared before its model is bound to a database.
+  let reader: RawRowReader | null = null;
+  const readRow = (): RawRowReader => (reader ??= rawRowReader(model, ['id', 'siteId', 'createdById', 'revision', 'deletedAt', ...fields]));
+  const toStored = (raw: Record<string, unknown>): StoredRecord<E> => {
+    const plain = readRow()(raw);
     return {
       entity,
       id: plain['id'] as string,
@@ -94,8 +97,10 @@ export function tableRecordStore<E extends SyncEntity>(options: TableStoreOption
       if (ids.length === 0) {
         return new Map();
       }
-      const rows = await model.findAll({ where: { id: { [Op.in]: [...new Set(ids)] } }, transaction });
-      return new Map(rows.map((row) => {
+      // Raw rows of only the columns used: building a model instance per row cost most of a pull's
+      // time (about 0.05 ms a row); `readRow` gives the values an instance would have held.
+      const rows = await model.findAll({ attributes: readRow().columns, where: { id: { [Op.in]: [...new Set(ids)] } }, raw: true, transaction });
+      return new Map((rows as unknown as Record<string, unknown>[]).map((row) => {
         const stored = toStored(row);
         return [stored.id, stored];
       }));
@@ -137,4 +142,52 @@ export function tableRecordStore<E extends SyncEntity>(options: TableStoreOption
       await insertRows(model, rows, { transaction, updateOnDuplicate: writableColumns });
     },
   };
+}
+
+/** Reads raw rows of some columns as a model instance holds them. */
+interface RawRowReader {
+  (row: Record<string, unknown>): Record<string, unknown>;
+  /** The columns to select (those of the model among the asked ones, each once). */
+  readonly columns: string[];
+}
+
+/**
+ * Converts a raw row's values to what a model instance of `model` holds for them (its
+ * `get({ plain: true })`, getters aside). On SQLite Sequelize parses an instance's values by column
+ * type (DATETIME to Date, JSON text parsed, floating text such as "NaN" to numbers) and hands raw
+ * rows the stored text; this applies the dialect's own parsers, the same way. PostgreSQL's driver
+ * parses raw rows and instances alike, so they are kept as they come.
+ */
+export function rawRowReader(model: ModelStatic<Model>, wanted: readonly string[]): RawRowReader {
+  const attributes = model.getAttributes() as Record<string, { type: { key?: string } }>;
+  const columns = [...new Set(wanted)].filter((column) => Object.hasOwn(attributes, column));
+  const parsers: [string, (value: unknown) => unknown][] = [];
+  if (model.sequelize?.getDialect() === 'sqlite') {
+    // Sequelize's typings leave out the dialect types and the instance options; both are public at run time.
+    const sqliteTypes = (DataTypes as unknown as { sqlite: Record<string, { parse(value: unknown, options?: unknown): unknown }> }).sqlite;
+    const options = { timezone: (model.sequelize as unknown as { options: { timezone: string } }).options.timezone };
+    const parserOf: Record<string, (value: unknown) => unknown> = {
+      DATE: (value) => sqliteTypes['DATE'].parse(value, options),
+      JSON: (value) => sqliteTypes['JSON'].parse(value),
+      'DOUBLE PRECISION': (value) => (typeof value === 'string' ? sqliteTypes['DOUBLE PRECISION'].parse(value) : value),
+      FLOAT: (value) => (typeof value === 'string' ? sqliteTypes['FLOAT'].parse(value) : value),
+      REAL: (value) => (typeof value === 'string' ? sqliteTypes['REAL'].parse(value) : value),
+    };
+    for (const column of columns) {
+      const parse = parserOf[attributes[column].type.key ?? ''];
+      if (parse) {
+        parsers.push([column, parse]);
+      }
+    }
+  }
+  const read = (row: Record<string, unknown>): Record<string, unknown> => {
+    for (const [column, parse] of parsers) {
+      const value = row[column];
+      if (value !== null && value !== undefined) {
+        row[column] = parse(value);
+      }
+    }
+    return row;
+  };
+  return Object.assign(read, { columns });
 }

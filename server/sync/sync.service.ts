@@ -104,11 +104,19 @@ export class SyncService {
     if (readable !== 'all') {
       where['siteId'] = { [Op.in]: [...readable] };
     }
-    const rows = await ChangeLogEntry.findAll({ where, order: [['revision', 'ASC']], limit: limit + 1 });
+    // Raw rows (no model instance per entry); revision is BIGINT, text on PostgreSQL.
+    const rows = (await ChangeLogEntry.findAll({
+      attributes: ['entity', 'recordId', 'revision'], where, order: [['revision', 'ASC']], limit: limit + 1, raw: true,
+    })) as unknown as { entity: SyncEntity; recordId: string; revision: number | string }[];
     const page = rows.slice(0, limit);
     const byEntity = new Map<SyncEntity, string[]>();
     for (const row of page) {
-      byEntity.set(row.entity, [...(byEntity.get(row.entity) ?? []), row.recordId]);
+      const ids = byEntity.get(row.entity);
+      if (ids) {
+        ids.push(row.recordId);
+      } else {
+        byEntity.set(row.entity, [row.recordId]);
+      }
     }
     const records = new Map<string, StoredRecord>();
     for (const [entity, ids] of byEntity) {
@@ -126,7 +134,7 @@ export class SyncService {
         });
       }
     }
-    return { changes, cursor: page.length > 0 ? page[page.length - 1].revision : since, hasMore: rows.length > limit };
+    return { changes, cursor: page.length > 0 ? Number(page[page.length - 1].revision) : since, hasMore: rows.length > limit };
   }
 
   /** Open conflicts in the sites the user may read, oldest first. */
