@@ -2,7 +2,7 @@ import { provideHttpClient, withFetch, withInterceptors } from '@angular/common/
 import {
   ApplicationConfig, isDevMode, provideBrowserGlobalErrorListeners, provideZonelessChangeDetection,
 } from '@angular/core';
-import { provideRouter, withComponentInputBinding, withDisabledInitialNavigation } from '@angular/router';
+import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { provideServiceWorker } from '@angular/service-worker';
 import { routes } from './app.routes';
 import { authInterceptor } from './core/http/auth.interceptor';
@@ -12,8 +12,7 @@ export const appConfig: ApplicationConfig = {
   providers: [
     provideBrowserGlobalErrorListeners(),
     provideZonelessChangeDetection(),
-    // The first navigation starts from App once the frame has rendered (see App), in a task of its own.
-    provideRouter(routes, withComponentInputBinding(), withDisabledInitialNavigation()),
+    provideRouter(routes, withComponentInputBinding()),
     provideHttpClient(withFetch(), withInterceptors([authInterceptor])),
     provideI18n(),
     provideServiceWorker('ngsw-worker.js', {
