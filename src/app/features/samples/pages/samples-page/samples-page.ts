@@ -67,6 +67,8 @@ const VIEWPORT_MAX_HEIGHT = '65vh';
     .count { min-height: 1.5em; margin: 8px 0; font: var(--mat-sys-title-small); }
     .table-frame { overflow-x: auto; border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; }
     .grid { min-width: max-content; }
+    /* The list scrolls by keyboard too (it takes focus), so show where focus is. */
+    .viewport:focus-visible { outline: 3px solid var(--mat-sys-primary); outline-offset: -3px; }
     .row { display: grid; grid-template-columns: var(--columns); height: 48px; align-items: center; border-bottom: 1px solid var(--mat-sys-outline-variant); }
     .row > div { padding: 0 12px; white-space: nowrap; overflow: hidden; text-overflow: ellipsis; }
     .header { font-weight: 500; height: 56px; background: var(--mat-sys-surface-container); }
