@@ -13,7 +13,7 @@ import type { Database } from '../db/database';
 import { AppError } from '../lib/errors';
 import { photoRecordStore } from '../photos/photos.repository';
 import { insertRows } from './insert-rows';
-import type { RecordStore, RecordWrite, StoredRecord } from './record-store';
+import { selectRaw, type RecordStore, type RecordWrite, type StoredRecord } from './record-store';
 import { ChangeLogEntry, DeviceNumber, SyncConflict, SyncMutation, SyncRevision } from './sync.models';
 
 /** The store of each synced entity. */
@@ -105,8 +105,8 @@ export class SyncService {
       where['siteId'] = { [Op.in]: [...readable] };
     }
     // Raw rows (no model instance per entry); revision is BIGINT, text on PostgreSQL.
-    const rows = (await ChangeLogEntry.findAll({
-      attributes: ['entity', 'recordId', 'revision'], where, order: [['revision', 'ASC']], limit: limit + 1, raw: true,
+    const rows = (await selectRaw(ChangeLogEntry, {
+      attributes: ['entity', 'recordId', 'revision'], where, order: [['revision', 'ASC']], limit: limit + 1,
     })) as unknown as { entity: SyncEntity; recordId: string; revision: number | string }[];
     const page = rows.slice(0, limit);
     const byEntity = new Map<SyncEntity, string[]>();
