@@ -1,4 +1,4 @@
-import type { EconomicParameters } from './shortlist.store';
+import type { EconomicParameters } from './economic-parameters';
 
 /**
  * The shortlist's reasons and assumptions come from the server as English sentences of a known

@@ -3,22 +3,9 @@ import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { LonLat, ScenarioRanks } from '../../../../shared/engine';
 import { toApiProblem, type ApiProblem } from '../../core/http/api-error';
+import type { EconomicParameters } from './economic-parameters';
 
-/** The economic parameters of a site, as `GET /api/economics/:siteId` answers (fractions, not percent). */
-export interface EconomicParameters {
-  readonly currency: string;
-  readonly goldPricePerTroyOz: number;
-  readonly payableFraction: number;
-  readonly haulCostPerTKm: number;
-  readonly roadFactor: number;
-  readonly processingCostPerT: number;
-  readonly fixedCostPerPile: number;
-  readonly ownerShareOfGross: number;
-  readonly confidenceLevel: number;
-  readonly defaultRecovery: number;
-  readonly discrepancyTolerance: number;
-  readonly minSamplesToRank: number;
-}
+export type { EconomicParameters } from './economic-parameters';
 
 /** Where a parameter came from. */
 export type ParameterSource = 'site' | 'site-default' | 'built-in' | 'query';
