@@ -14,7 +14,7 @@ export const PHONE = { width: 390, height: 844 };
 export const DEMO_PASSWORD = 'heapsight-demo';
 
 /** Flags that keep Chromium from calling outside hosts, which this machine refuses. */
-const CHROMIUM_ARGS = [
+export const CHROMIUM_ARGS = [
   '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
   '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage',
 ];
