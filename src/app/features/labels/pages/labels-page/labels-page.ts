@@ -61,7 +61,7 @@ const DOWNLOAD_PROBLEMS: ProblemKeys = {
       @if (problem(); as problem) { <p class="problem" role="alert">{{ problem }}</p> }
       @if (printed(); as printed) {
         <p class="printed" role="status" data-testid="labels-printed">
-          <mat-icon>check_circle</mat-icon> {{ 'labels.page.printed' | transloco: { count: printed.count, first: printed.firstCode, last: printed.lastCode } }}
+          <mat-icon aria-hidden="true">check_circle</mat-icon> {{ 'labels.page.printed' | transloco: { count: printed.count, first: printed.firstCode, last: printed.lastCode } }}
         </p>
       }
       <p class="hs-muted">{{ 'labels.page.needsConnection' | transloco }}</p>
@@ -72,7 +72,7 @@ const DOWNLOAD_PROBLEMS: ProblemKeys = {
     .presets { display: flex; gap: 8px; flex-wrap: wrap; }
     .presets button, .go { min-height: 48px; min-width: 64px; }
     .problem { color: var(--hs-fail); font-weight: 500; }
-    .printed { display: flex; gap: 8px; align-items: center; font-weight: 500; }
+    .printed { display: flex; gap: 8px; align-items: center; font-weight: 500; } .printed mat-icon { flex: none; }
   `,
 })
 export default class LabelsPage {
