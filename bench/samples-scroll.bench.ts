@@ -44,17 +44,25 @@ async function visit(page: Page, siteId: string, expectedTotal: number): Promise
   const firstRowsMs = Date.now() - started;
   await recordLongTasks(page);
   const viewport = page.locator('cdk-virtual-scroll-viewport');
+  // Rows fetched so far, from the count line ("1,200 of 20,000 samples").
+  const loadedRows = () => page.getByTestId('sample-count').evaluate((element) => Number(((element.textContent ?? '').match(/[\d,]+/) ?? ['0'])[0].replace(/,/g, '')));
   for (let fling = 0; fling < FLINGS; fling += 1) {
-    const before = await viewport.evaluate((element) => element.scrollTop);
+    const [before, loaded] = [await viewport.evaluate((element) => element.scrollTop), await loadedRows()];
+    const isAtEnd = await viewport.evaluate((element) => element.scrollTop + element.clientHeight >= element.scrollHeight - 1);
+    // The whole list is here and in view to its end (a short list): nothing more to fling through.
+    if (isAtEnd && loaded >= expectedTotal) break;
     await viewport.evaluate((element, screens) => element.scrollBy(0, element.clientHeight * screens), SCREENS_PER_FLING);
-    // Rows for the new place are drawn (the virtual scroll renders on the next frames, a fetch may follow).
-    await page.waitForFunction((top) => {
+    // Either the list moved and rows are drawn where it now stands, or it stood at the end of the rows
+    // fetched so far and the next page came (the next fling goes on from there).
+    await page.waitForFunction(({ top, rows }) => {
       const element = document.querySelector('cdk-virtual-scroll-viewport');
+      const count = document.querySelector('[data-testid="sample-count"]')?.textContent ?? '';
       if (!element) return false;
+      if (Number((count.match(/[\d,]+/) ?? ['0'])[0].replace(/,/g, '')) > rows) return true;
       const box = element.getBoundingClientRect();
       const row = document.elementFromPoint(box.left + 20, box.top + box.height / 2);
-      return element.scrollTop !== top && row?.closest('[role="row"]') != null;
-    }, before, { timeout: 15_000 }).catch(() => undefined);
+      return element.scrollTop > top && row?.closest('[role="row"]') != null;
+    }, { top: before, rows: loaded }, { timeout: 15_000 });
   }
   const rowsPassed = await page.locator('cdk-virtual-scroll-viewport [role="row"]').last().getAttribute('aria-rowindex');
   const rowsInDom = await page.locator('cdk-virtual-scroll-viewport [role="row"]').count();
