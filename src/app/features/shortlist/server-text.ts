@@ -1,4 +1,6 @@
-import type { EconomicParameters } from './economic-parameters';
+import { PARAMETER_NAMES, type EconomicParameters } from '../../../../shared/economics/economic-parameters';
+
+export { PARAMETER_NAMES };
 
 /**
  * The shortlist's reasons and assumptions come from the server as English sentences of a known
@@ -48,12 +50,6 @@ const ASSUMPTIONS: readonly Shape[] = [
   { pattern: new RegExp(`^conservative net value uses the lower bound of the grade's ${NUMBER} % confidence interval$`), key: 'shortlist.assumptions.conservative', captures: [pct('level')] },
   { pattern: new RegExp(`^recovery \\+${NUMBER} % is capped at 1$`), key: 'shortlist.assumptions.recoveryCap', captures: [pct('step')] },
   { pattern: /^(\w+) is the built-in default \((.*)\), not set for this site$/, key: 'shortlist.assumptions.builtIn', captures: [field('field'), value('value')] },
-];
-
-/** The parameter names the screen has a label for (`shortlist.parameters.fields.<name>`). */
-export const PARAMETER_NAMES: readonly (keyof EconomicParameters)[] = [
-  'currency', 'goldPricePerTroyOz', 'payableFraction', 'haulCostPerTKm', 'roadFactor', 'processingCostPerT', 'fixedCostPerPile',
-  'ownerShareOfGross', 'confidenceLevel', 'defaultRecovery', 'discrepancyTolerance', 'minSamplesToRank',
 ];
 
 /**

@@ -3,9 +3,9 @@ import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import type { LonLat, ScenarioRanks } from '../../../../shared/engine';
 import { toApiProblem, type ApiProblem } from '../../core/http/api-error';
-import type { EconomicParameters } from './economic-parameters';
+import type { EconomicParameters } from '../../../../shared/economics/economic-parameters';
 
-export type { EconomicParameters } from './economic-parameters';
+export type { EconomicParameters } from '../../../../shared/economics/economic-parameters';
 
 /** Where a parameter came from. */
 export type ParameterSource = 'site' | 'site-default' | 'built-in' | 'query';
