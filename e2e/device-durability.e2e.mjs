@@ -8,7 +8,7 @@
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { ROOT, launchBrowser, newContext, signIn, startServer, waitForServiceWorker } from './harness.mjs';
+import { ROOT, launchBrowser, newContext, readDeviceRecords, signIn, startServer, waitForServiceWorker } from './harness.mjs';
 
 const PHOTO = join(ROOT, 'tests/fixtures/pile-photo.jpg');
 /** How long after the tap on Save the page is closed: before, during and after the device write. */
@@ -23,27 +23,6 @@ async function fillSample(page, baseUrl, { pileCode, wetMass }) {
   await page.getByLabel('Wet mass (kg)').fill(wetMass);
   await page.getByLabel('Position on pile').fill('toe');
   await page.getByLabel('Add photo').setInputFiles(PHOTO);
-}
-
-/** The device database as stored, read with IndexedDB itself (not through the app's code). */
-function readDevice() {
-  return new Promise((resolve, reject) => {
-    const opening = indexedDB.open('heapsight');
-    opening.onerror = () => reject(opening.error);
-    opening.onsuccess = () => {
-      const db = opening.result;
-      const transaction = db.transaction(['samples', 'photos', 'outbox'], 'readonly');
-      const all = (name) => new Promise((done) => { const request = transaction.objectStore(name).getAll(); request.onsuccess = () => done(request.result); });
-      Promise.all([all('samples'), all('photos'), all('outbox')]).then(([samples, photos, outbox]) => {
-        db.close();
-        resolve({
-          samples: samples.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, code: row.code, wetMassKg: row.wetMassKg })),
-          photos: photos.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, ownerId: row.ownerId, bytes: row.blob?.size ?? 0 })),
-          outbox: outbox.map((entry) => ({ entity: entry.entity, id: entry.id })),
-        });
-      }, reject);
-    };
-  });
 }
 
 /** Every pending record has its outbox entry and every entry its record. */
@@ -98,14 +77,14 @@ describe('device durability', () => {
       page = await context.newPage();
       await page.goto(`${server.url}/capture`);
       await page.getByRole('heading', { name: 'Capture', exact: true }).waitFor();
-      const device = await page.evaluate(readDevice);
+      const device = await page.evaluate(readDeviceRecords);
       assertRecordsMatchOutbox(device, `closed ${delay} ms after Save`);
       outcomes.push(`${delay} ms: ${device.samples.length} samples, ${device.photos.length} photos`);
     }
 
     // Assert: the last save (closed half a second later) had time to finish; all saves agree with the outbox.
     t.diagnostic(`after each close: ${outcomes.join('; ')}`);
-    const device = await page.evaluate(readDevice);
+    const device = await page.evaluate(readDeviceRecords);
     assert.ok(device.samples.some((row) => row.wetMassKg === 10 + CLOSE_AFTER_MS.length - 1), 'the save given half a second was kept');
     assert.equal(new Set(device.samples.map((row) => row.code)).size, device.samples.length, 'no code given twice');
     await context.close();

@@ -19,7 +19,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import { chromium } from 'playwright-core';
-import { CHROMIUM_PATH, PHONE, ROOT, screenshot, signIn, startServer } from './harness.mjs';
+import { CHROMIUM_PATH, PHONE, ROOT, readDeviceRecords, screenshot, signIn, startServer } from './harness.mjs';
 
 const PHOTO = join(ROOT, 'tests/fixtures/pile-photo.jpg');
 /** The words the crew sees, from the app's own English strings (core.storageFull.message). */
@@ -73,27 +73,6 @@ function fillStorage(databaseName) {
     }
     db.close();
     return { written, refusals: [...refusals] };
-  });
-}
-
-/** The app's device database as stored, read with IndexedDB itself (not through the app's code). */
-function readDevice() {
-  return new Promise((resolve, reject) => {
-    const opening = indexedDB.open('heapsight');
-    opening.onerror = () => reject(opening.error);
-    opening.onsuccess = () => {
-      const db = opening.result;
-      const transaction = db.transaction(['samples', 'photos', 'outbox'], 'readonly');
-      const all = (name) => new Promise((done) => { const request = transaction.objectStore(name).getAll(); request.onsuccess = () => done(request.result); });
-      Promise.all([all('samples'), all('photos'), all('outbox')]).then(([samples, photos, outbox]) => {
-        db.close();
-        resolve({
-          samples: samples.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, code: row.code, wetMassKg: row.wetMassKg, position: row.position })),
-          photos: photos.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, ownerId: row.ownerId, bytes: row.blob?.size ?? 0 })),
-          outbox: outbox.map((entry) => ({ entity: entry.entity, id: entry.id })),
-        });
-      }, reject);
-    };
   });
 }
 
@@ -172,7 +151,7 @@ async function saveOnAFullPhone(t, server, { labelCode, screenshotName }) {
     await fillSample(page, { pileCode, wetMass: '12.5', position: 'toe' });
     await page.getByRole('button', { name: 'Save sample' }).click();
     await page.getByRole('heading', { name: `Samples (${samplesBefore + 1})` }).waitFor();
-    const saved = await page.evaluate(readDevice);
+    const saved = await page.evaluate(readDeviceRecords);
     assert.equal(saved.samples.length, 1);
     assertOneEntryPerRecord(saved, 'after the first save');
 
@@ -198,7 +177,7 @@ async function saveOnAFullPhone(t, server, { labelCode, screenshotName }) {
     assert.equal(await page.getByLabel('Position on pile').inputValue(), 'crest');
     if (labelCode) assert.equal(await page.getByTestId('label-code').inputValue(), labelCode);
     await page.getByText('1 photo(s)').waitFor();
-    const refused = await page.evaluate(readDevice);
+    const refused = await page.evaluate(readDeviceRecords);
     assert.deepEqual(refused, saved, 'the refused save changed nothing on the phone, and the first sample is kept');
 
     // Act: room again (the quota raised), and Save tapped again. The notice (which stays until
@@ -212,7 +191,7 @@ async function saveOnAFullPhone(t, server, { labelCode, screenshotName }) {
 
     // Assert: saved once, next to the first; one outbox entry per record, nothing pushed meanwhile.
     await page.getByRole('heading', { name: `Samples (${samplesBefore + 2})` }).waitFor();
-    const after = await page.evaluate(readDevice);
+    const after = await page.evaluate(readDeviceRecords);
     assertOneEntryPerRecord(after, 'after the save with room');
     assert.equal(after.samples.length, 2);
     assert.deepEqual(after.samples.find((row) => row.id === saved.samples[0].id), saved.samples[0], 'the first sample is as it was saved');

@@ -128,3 +128,27 @@ export async function signIn(page, baseUrl, email) {
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
 }
+
+/**
+ * Runs in the page (`page.evaluate(readDeviceRecords)`): the records waiting to sync and the outbox,
+ * read from the app's IndexedDB with IndexedDB itself, not through the app's code.
+ */
+export function readDeviceRecords() {
+  return new Promise((resolve, reject) => {
+    const opening = indexedDB.open('heapsight');
+    opening.onerror = () => reject(opening.error);
+    opening.onsuccess = () => {
+      const db = opening.result;
+      const transaction = db.transaction(['samples', 'photos', 'outbox'], 'readonly');
+      const all = (name) => new Promise((done) => { const request = transaction.objectStore(name).getAll(); request.onsuccess = () => done(request.result); });
+      Promise.all([all('samples'), all('photos'), all('outbox')]).then(([samples, photos, outbox]) => {
+        db.close();
+        resolve({
+          samples: samples.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, code: row.code, wetMassKg: row.wetMassKg, position: row.position })),
+          photos: photos.filter((row) => row.hasPendingChange).map((row) => ({ id: row.id, ownerId: row.ownerId, bytes: row.blob?.size ?? 0 })),
+          outbox: outbox.map((entry) => ({ entity: entry.entity, id: entry.id })),
+        });
+      }, reject);
+    };
+  });
+}
